@@ -1,0 +1,5 @@
+"""`python -m selector` runs the command-line interface."""
+
+from selector.cli import main
+
+main()

@@ -1,0 +1,192 @@
+"""The command line: thin commands that parse, call the library and print.
+
+Heavy modules are imported inside the commands so ``selector --help`` is fast.
+"""
+
+from __future__ import annotations
+
+import sys
+from pathlib import Path
+
+import click
+
+from selector import __version__
+
+FORMATS = ("table", "csv", "json", "md")
+format_option = click.option(
+    "--format", "fmt", type=click.Choice(FORMATS), default=None, help="Output format (default: table)."
+)
+units_option = click.option(
+    "--units", type=click.Choice(("si", "us")), default=None, help="Units system for output."
+)
+
+
+class Quantity(click.ParamType):
+    """A click parameter for quantities such as "200 MPa"; checks the unit's dimension."""
+
+    name = "quantity"
+
+    def __init__(self, unit: str) -> None:
+        self.unit = unit
+
+    def convert(self, value, param, ctx):  # noqa: ANN001
+        from selector.errors import UnitError
+        from selector.units import magnitude_in
+
+        try:
+            return magnitude_in(str(value), self.unit, f"--{param.name}" if param else "value")
+        except UnitError as exc:
+            self.fail(str(exc.what) + (f"; {exc.expected}" if exc.expected else ""), param, ctx)
+
+
+def _emit(text: str, output: str | None) -> None:
+    if output:
+        from selector.export import write_text_atomic
+
+        write_text_atomic(Path(output), text)
+        click.echo(f"wrote {output}", err=True)
+    else:
+        click.echo(text)
+
+
+@click.group(context_settings={"help_option_names": ["-h", "--help"]})
+@click.version_option(__version__, prog_name="selector")
+def cli() -> None:
+    """Material selection for the concept design of load-bearing parts.
+
+    Screens a table of generic material classes, derives the merit index from
+    the design requirement, sizes every candidate and ranks them.
+    """
+
+
+@cli.group()
+def materials() -> None:
+    """List, show and check material tables."""
+
+
+@materials.command("list")
+@click.option("--family", multiple=True, help="Only this family (repeatable).")
+@click.option("--search", default=None, help="Only classes whose id or name contains TEXT.")
+@click.option("--materials", "files", multiple=True, type=click.Path(), help="Add a materials file.")
+@click.option("--no-builtin", is_flag=True, help="Leave out the built-in table.")
+@format_option
+@units_option
+def materials_list(family, search, files, no_builtin, fmt, units) -> None:
+    """List the material classes."""
+    from selector import tables
+    from selector.materials import load_materials
+
+    table = load_materials(files, builtin=not no_builtin)
+    click.echo(tables.render(tables.materials_frame(table, family, search, units or "si"), fmt or "table"))
+
+
+@materials.command("show")
+@click.argument("class_id")
+@click.option("--materials", "files", multiple=True, type=click.Path(), help="Add a materials file.")
+@format_option
+@units_option
+def materials_show(class_id, files, fmt, units) -> None:
+    """Show every property of one class."""
+    from selector import tables
+    from selector.materials import load_materials
+
+    table = load_materials(files)
+    click.echo(tables.render(tables.class_frame(table, class_id, units or "si"), fmt or "table"))
+
+
+@materials.command("check")
+@click.argument("file", type=click.Path())
+@format_option
+def materials_check(file, fmt) -> None:
+    """Check a materials file; list every problem (exit 2 if any)."""
+    import json
+
+    from selector.materials import check_materials_file
+
+    problems = check_materials_file(file)
+    if fmt == "json":
+        click.echo(json.dumps([{"where": p.where, "what": p.what, "expected": p.expected} for p in problems]))
+    elif problems:
+        for p in problems:
+            click.echo(f"error: {p}", err=True)
+    if problems:
+        click.echo(f"{file}: {len(problems)} problems", err=True)
+        sys.exit(2)
+    if fmt != "json":
+        click.echo(f"{file}: no problems found")
+
+
+@cli.command()
+@click.argument("function")
+@click.option("--objective", default="mass", show_default=True, help="mass | cost | co2 | volume")
+@click.option("--constraint", default="stiffness", show_default=True, help="stiffness | strength | buckling")
+@click.option("--free", default="scale", show_default=True, help="scale | depth | width | thickness | wall")
+@click.option("--support", default=None, help="Beam or column end conditions.")
+@click.option("--load", default=None, help="Beam load: end | centre | uniform.")
+@format_option
+def derive(function, objective, constraint, free, support, load, fmt) -> None:
+    """Derive the merit index for FUNCTION and show the steps."""
+    from selector import tables
+    from selector.derive import derive as run
+
+    result = run(function, constraint, objective, free, support, load)
+    click.echo(tables.render_derivation(result, fmt or "table"))
+
+
+@cli.command()
+@click.argument("spec", type=click.Path())
+@click.option("--materials", "files", multiple=True, type=click.Path(), help="Add a materials file (repeatable).")
+@click.option("--no-builtin", is_flag=True, help="Rank the given materials files alone.")
+@click.option("--conservative", is_flag=True, help="Rank by the unfavourable end of each range.")
+@click.option("--top", type=click.IntRange(min=1), default=None, help="Show the best N only.")
+@click.option("--all", "show_all", is_flag=True, help="Also list the rejected classes with reasons.")
+@format_option
+@units_option
+@click.option("-o", "--output", type=click.Path(), default=None, help="Write to FILE (format from extension).")
+def rank(spec, files, no_builtin, conservative, top, show_all, fmt, units, output) -> None:
+    """Screen, derive, size and rank the classes for a SPEC file."""
+    from selector import tables
+    from selector.api import run_spec
+
+    selection = run_spec(spec, files, no_builtin, conservative, protect=[spec, *files], output=output)
+    fmt = fmt or tables.format_for(output)
+    units = units or selection.spec.units
+    if output and fmt == "xlsx":
+        from selector.export import write_xlsx
+
+        write_xlsx(selection, Path(output), units, protect=[spec, *files])
+        click.echo(f"wrote {output}", err=True)
+        return
+    _emit(tables.render_selection(selection, fmt, units, top, show_all), output)
+
+
+@cli.command()
+@click.option("--out", "out_dir", type=click.Path(), default="selector-demo", show_default=True)
+def demo(out_dir) -> None:
+    """Run a bundled example end to end and write its files."""
+    from selector import tables
+    from selector.api import run_demo
+
+    selection, written = run_demo(Path(out_dir))
+    click.echo(tables.render_selection(selection, "table", selection.spec.units, 10, False))
+    for path in written:
+        click.echo(f"wrote {path}")
+
+
+def main() -> None:
+    """Entry point: turn user-input errors into one clear line and exit status 2."""
+    from selector.errors import SelectorError
+
+    try:
+        cli.main(standalone_mode=False)
+    except SelectorError as exc:
+        click.echo(f"error: {exc}", err=True)
+        sys.exit(exc.exit_code)
+    except click.exceptions.Abort:
+        click.echo("aborted", err=True)
+        sys.exit(1)
+    except click.exceptions.ClickException as exc:
+        exc.show()
+        sys.exit(exc.exit_code)
+    except click.exceptions.Exit as exc:
+        sys.exit(exc.exit_code)

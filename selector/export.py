@@ -1,0 +1,39 @@
+"""Writing results to files, atomically (temporary file, then rename)."""
+
+from __future__ import annotations
+
+import os
+import tempfile
+from pathlib import Path
+
+from selector.errors import OutputError
+
+
+def write_bytes_atomic(path: Path, data: bytes) -> None:
+    """Write ``data`` to ``path`` via a temporary file in the same folder, then rename.
+
+    An interrupted write leaves any previous file intact.
+    """
+    path = Path(path)
+    folder = path.parent if str(path.parent) else Path(".")
+    if not folder.is_dir():
+        raise OutputError(str(path), f"folder {str(folder)!r} does not exist")
+    try:
+        fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=folder)
+    except OSError as exc:
+        raise OutputError(str(path), f"cannot write in {str(folder)!r} ({exc.strerror})") from None
+    try:
+        with os.fdopen(fd, "wb") as handle:
+            handle.write(data)
+        os.replace(tmp, path)
+    except OSError as exc:
+        Path(tmp).unlink(missing_ok=True)
+        raise OutputError(str(path), f"cannot be written ({exc.strerror})") from None
+    except BaseException:
+        Path(tmp).unlink(missing_ok=True)
+        raise
+
+
+def write_text_atomic(path: Path, text: str) -> None:
+    """Write UTF-8 text atomically."""
+    write_bytes_atomic(path, text.encode("utf-8"))

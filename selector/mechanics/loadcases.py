@@ -1,0 +1,266 @@
+"""Load cases as monomial equations.
+
+Each case states, for the part at its limit, the *utilisation* of every
+constraint it supports as one monomial (utilisation = 1 at the limit, < 1 safe)
+in loads, geometry, section quantities and material properties. A new load case
+is a few lines here; the derivation of its merit index is done by ``derive``.
+
+Symbols (SI): F force [N], L length or span [m], T torque [N·m], p pressure [Pa],
+U stored energy [J], b width [m], r radius [m], delta allowed deflection [m],
+theta allowed twist [rad], SF safety factor [-]; section: A area [m²],
+I second moment [m⁴], Z elastic section modulus [m³], J torsion constant [m⁴],
+Zt torsional section modulus [m³]; t wall or plate thickness [m], V volume [m³];
+properties: E, G, sigma_y, sigma_c [Pa], rho [kg/m³].
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+
+from selector.errors import InputError
+from selector.mechanics.monomial import Monomial as M
+from selector.suggest import did_you_mean
+
+FUNCTIONS = ("tie", "beam", "column", "shaft", "panel", "plate", "cylinder", "sphere", "spring")
+BEAM_SUPPORTS = ("cantilever", "simply-supported", "fixed-fixed")
+BEAM_LOADS = ("end", "centre", "uniform")
+COLUMN_SUPPORTS = ("pinned-pinned", "fixed-free", "fixed-pinned", "fixed-fixed")
+CONSTRAINTS = ("stiffness", "strength", "buckling")
+
+# δ = F·L³/(C·E·I) and M_max = F·L/C_M for each (support, load); F is the total load.
+# Common practice (Roark, Table 8.1; Gere & Timoshenko) — from memory.
+BEAM_CONSTANTS: dict[tuple[str, str], tuple[float, float]] = {
+    ("cantilever", "end"): (3.0, 1.0),
+    ("cantilever", "uniform"): (8.0, 2.0),
+    ("simply-supported", "centre"): (48.0, 4.0),
+    ("simply-supported", "uniform"): (384.0 / 5.0, 8.0),
+    ("fixed-fixed", "centre"): (192.0, 8.0),
+    ("fixed-fixed", "uniform"): (384.0, 12.0),
+}
+
+# Euler load F_cr = n²·π²·E·I/L²; n² for each end condition (the fixed-pinned
+# value 2.046 is the root of tan(kL) = kL). Common practice, no source.
+EULER_N2: dict[str, float] = {
+    "pinned-pinned": 1.0,
+    "fixed-free": 0.25,
+    "fixed-pinned": 2.046,
+    "fixed-fixed": 4.0,
+}
+
+PLATE_K = 4.0
+"""Buckling coefficient of a long plate simply supported on all edges (common practice, no source)."""
+PLATE_NU = 0.3
+"""Poisson's ratio assumed in the plate-buckling coefficient (stated in the derivation)."""
+SHEAR_YIELD_RATIO = 1 / math.sqrt(3)
+"""Shear yield τ_y = σ_y/√3 (von Mises), used for shafts."""
+
+
+@dataclass(frozen=True)
+class LoadCase:
+    """One supported load case.
+
+    Attributes:
+        function: tie, beam, column, ...
+        title: plain description, e.g. "beam, cantilever, end load".
+        utilisation: constraint type → utilisation monomial (1 at the limit).
+        responses: response name → monomial (e.g. deflection [m], stress [Pa]).
+        equations: constraint type → the governing equation written for people.
+        volume: material volume as a monomial in section and geometry.
+        needs: symbols each constraint needs from the spec, by constraint type.
+        allowed_free: free variables this case can be sized by.
+    """
+
+    function: str
+    title: str
+    utilisation: dict[str, M]
+    responses: dict[str, M]
+    equations: dict[str, str]
+    volume: M
+    allowed_free: tuple[str, ...]
+    notes: tuple[str, ...] = field(default=())
+
+    @property
+    def constraints(self) -> tuple[str, ...]:
+        return tuple(self.utilisation)
+
+
+def _check_choice(value: str | None, choices: tuple[str, ...], where: str) -> str:
+    if value not in choices:
+        raise InputError(where, f"{value!r} is not supported here", did_you_mean(str(value), choices))
+    return value
+
+
+def load_case(function: str, support: str | None = None, load: str | None = None) -> LoadCase:
+    """The load case for a function and, where it matters, its support and load."""
+    _check_choice(function, FUNCTIONS, "part.function")
+    if function in ("beam", "panel"):
+        support = _check_choice(support or "simply-supported", BEAM_SUPPORTS, "part.support")
+        default_load = "end" if support == "cantilever" else "centre"
+        load = load or default_load
+        valid = tuple(ld for (s, ld) in BEAM_CONSTANTS if s == support)
+        _check_choice(load, valid, "part.load")
+        return _bending(function, support, load)
+    if function == "column":
+        support = _check_choice(support or "pinned-pinned", COLUMN_SUPPORTS, "part.support")
+        return _column(support)
+    return {
+        "tie": _tie,
+        "shaft": _shaft,
+        "plate": _plate,
+        "cylinder": _cylinder,
+        "sphere": _sphere,
+        "spring": _spring,
+    }[function]()
+
+
+def _tie() -> LoadCase:
+    return LoadCase(
+        function="tie",
+        title="tie in tension",
+        utilisation={
+            "stiffness": M.of(1, F=1, L=1, A=-1, E=-1, delta=-1),
+            "strength": M.of(1, F=1, SF=1, A=-1, sigma_y=-1),
+        },
+        responses={"deflection": M.of(1, F=1, L=1, A=-1, E=-1), "stress": M.of(1, F=1, A=-1)},
+        equations={
+            "stiffness": "extension δ = F·L/(A·E) ≤ δ_max",
+            "strength": "stress σ = F/A ≤ σ_y/SF",
+        },
+        volume=M.of(1, A=1, L=1),
+        allowed_free=("scale",),
+    )
+
+
+def _bending(function: str, support: str, load: str) -> LoadCase:
+    c_defl, c_moment = BEAM_CONSTANTS[(support, load)]
+    return LoadCase(
+        function=function,
+        title=f"{function}, {support}, {load} load",
+        utilisation={
+            "stiffness": M.of(1 / c_defl, F=1, L=3, E=-1, I=-1, delta=-1),
+            "strength": M.of(1 / c_moment, F=1, L=1, SF=1, Z=-1, sigma_y=-1),
+        },
+        responses={
+            "deflection": M.of(1 / c_defl, F=1, L=3, E=-1, I=-1),
+            "stress": M.of(1 / c_moment, F=1, L=1, Z=-1),
+        },
+        equations={
+            "stiffness": f"deflection δ = F·L³/(C·E·I) ≤ δ_max, C = {c_defl:g}",
+            "strength": f"peak stress σ = M/Z = F·L/(C_M·Z) ≤ σ_y/SF, C_M = {c_moment:g}",
+        },
+        volume=M.of(1, A=1, L=1),
+        allowed_free=("thickness",) if function == "panel" else ("scale", "depth", "width", "wall"),
+    )
+
+
+def _column(support: str) -> LoadCase:
+    n2 = EULER_N2[support]
+    return LoadCase(
+        function="column",
+        title=f"column, {support}",
+        utilisation={
+            "buckling": M.of(1 / (n2 * math.pi**2), F=1, SF=1, L=2, E=-1, I=-1),
+            "strength": M.of(1, F=1, SF=1, A=-1, sigma_c=-1),
+            "stiffness": M.of(1, F=1, L=1, A=-1, E=-1, delta=-1),
+        },
+        responses={
+            "deflection": M.of(1, F=1, L=1, A=-1, E=-1),
+            "stress": M.of(1, F=1, A=-1),
+            "buckling_load": M.of(n2 * math.pi**2, E=1, I=1, L=-2),
+        },
+        equations={
+            "buckling": f"Euler load F_cr = n²·π²·E·I/L² ≥ SF·F, n² = {n2:g}",
+            "strength": "crushing stress σ = F/A ≤ σ_c/SF",
+            "stiffness": "shortening δ = F·L/(A·E) ≤ δ_max",
+        },
+        volume=M.of(1, A=1, L=1),
+        allowed_free=("scale", "wall", "depth", "width"),
+    )
+
+
+def _shaft() -> LoadCase:
+    return LoadCase(
+        function="shaft",
+        title="shaft in torsion",
+        utilisation={
+            "stiffness": M.of(1, T=1, L=1, G=-1, J=-1, theta=-1),
+            "strength": M.of(1 / SHEAR_YIELD_RATIO, T=1, SF=1, Zt=-1, sigma_y=-1),
+        },
+        responses={"twist": M.of(1, T=1, L=1, G=-1, J=-1), "stress": M.of(1, T=1, Zt=-1)},
+        equations={
+            "stiffness": "twist θ = T·L/(G·J) ≤ θ_max",
+            "strength": "shear stress τ = T/Z_t ≤ σ_y/(√3·SF)",
+        },
+        volume=M.of(1, A=1, L=1),
+        allowed_free=("scale", "wall"),
+    )
+
+
+def _plate() -> LoadCase:
+    k = PLATE_K * math.pi**2 / (12 * (1 - PLATE_NU**2))
+    return LoadCase(
+        function="plate",
+        title="plate under in-plane compression",
+        utilisation={
+            "buckling": M.of(1 / k, F=1, SF=1, b=1, E=-1, t=-3),
+            "strength": M.of(1, F=1, SF=1, b=-1, t=-1, sigma_c=-1),
+        },
+        responses={"stress": M.of(1, F=1, b=-1, t=-1)},
+        equations={
+            "buckling": f"σ = F/(b·t) ≤ σ_cr/SF, σ_cr = k·π²·E/(12(1−ν²))·(t/b)², k = {PLATE_K:g}, ν = {PLATE_NU}",
+            "strength": "σ = F/(b·t) ≤ σ_c/SF",
+        },
+        volume=M.of(1, b=1, t=1, L=1),
+        allowed_free=("thickness",),
+        notes=(f"plate buckling assumes ν = {PLATE_NU} for every class",),
+    )
+
+
+def _cylinder() -> LoadCase:
+    return LoadCase(
+        function="cylinder",
+        title="thin-walled cylinder under internal pressure",
+        utilisation={
+            "strength": M.of(1, p=1, r=1, SF=1, t=-1, sigma_y=-1),
+            "stiffness": M.of(1, p=1, r=2, t=-1, E=-1, delta=-1),
+        },
+        responses={"stress": M.of(1, p=1, r=1, t=-1), "deflection": M.of(1, p=1, r=2, t=-1, E=-1)},
+        equations={
+            "strength": "hoop stress σ = p·r/t ≤ σ_y/SF",
+            "stiffness": "radial growth δ = p·r²/(E·t) ≤ δ_max (Poisson effect neglected)",
+        },
+        volume=M.of(2 * math.pi, r=1, L=1, t=1),
+        allowed_free=("wall",),
+    )
+
+
+def _sphere() -> LoadCase:
+    return LoadCase(
+        function="sphere",
+        title="thin-walled sphere under internal pressure",
+        utilisation={
+            "strength": M.of(0.5, p=1, r=1, SF=1, t=-1, sigma_y=-1),
+            "stiffness": M.of(0.5, p=1, r=2, t=-1, E=-1, delta=-1),
+        },
+        responses={"stress": M.of(0.5, p=1, r=1, t=-1), "deflection": M.of(0.5, p=1, r=2, t=-1, E=-1)},
+        equations={
+            "strength": "membrane stress σ = p·r/(2t) ≤ σ_y/SF",
+            "stiffness": "radial growth δ = p·r²/(2·E·t) ≤ δ_max (Poisson effect neglected)",
+        },
+        volume=M.of(4 * math.pi, r=2, t=1),
+        allowed_free=("wall",),
+    )
+
+
+def _spring() -> LoadCase:
+    return LoadCase(
+        function="spring",
+        title="spring storing elastic energy (uniform stress)",
+        utilisation={"strength": M.of(math.sqrt(2), SF=1, E=0.5, U=0.5, V=-0.5, sigma_y=-1)},
+        responses={"stress": M.of(math.sqrt(2), E=0.5, U=0.5, V=-0.5)},
+        equations={"strength": "energy U = V·σ²/(2E), so σ = (2·E·U/V)^(1/2) ≤ σ_y/SF"},
+        volume=M.of(1, V=1),
+        allowed_free=("scale",),
+        notes=("the spring is taken as uniformly stressed; a leaf or coil spring stores a fixed fraction",),
+    )

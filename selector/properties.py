@@ -1,0 +1,119 @@
+"""The property registry: the one place that says what each property is.
+
+Every other module reads symbols, units and bounds from here. The data table
+stores engineering units (``stored``); ``to_si`` converts once for computation.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+
+@dataclass(frozen=True)
+class Property:
+    """One material property.
+
+    Attributes:
+        symbol: column stem in the data (``E`` gives ``E_low`` and ``E_high``).
+        name: plain-English name.
+        stored: unit of the values in the table (a pint-readable string).
+        label: the same unit written for people.
+        si_factor: multiply a stored value by this to get SI base units.
+        us: US customary unit (pint-readable) for ``--units us``.
+        us_label: the US unit written for people.
+        lower, upper: physical sanity bounds, in the stored unit.
+        log: plot and average on a log scale.
+        positive: values must be > 0.
+        core: must be present for every class (never "n/a").
+    """
+
+    symbol: str
+    name: str
+    stored: str
+    label: str
+    si_factor: float
+    us: str
+    us_label: str
+    lower: float
+    upper: float
+    log: bool = True
+    positive: bool = True
+    core: bool = False
+
+    @property
+    def low(self) -> str:
+        return f"{self.symbol}_low"
+
+    @property
+    def high(self) -> str:
+        return f"{self.symbol}_high"
+
+
+def _p(*args, **kwargs) -> Property:
+    return Property(*args, **kwargs)
+
+
+PROPERTIES: dict[str, Property] = {
+    p.symbol: p
+    for p in (
+        _p("rho", "density", "kg/m^3", "kg/m³", 1.0, "lb/in^3", "lb/in³", 1.0, 25_000.0, core=True),
+        _p("E", "Young's modulus", "GPa", "GPa", 1e9, "Msi", "Msi", 1e-5, 1200.0, core=True),
+        _p("G", "shear modulus", "GPa", "GPa", 1e9, "Msi", "Msi", 1e-6, 600.0),
+        _p("nu", "Poisson's ratio", "dimensionless", "–", 1.0, "dimensionless", "–", -1.0, 0.5, log=False, positive=False),
+        _p("sigma_y", "yield strength (elastic limit)", "MPa", "MPa", 1e6, "ksi", "ksi", 1e-3, 10_000.0, core=True),
+        _p("sigma_ts", "tensile strength", "MPa", "MPa", 1e6, "ksi", "ksi", 1e-3, 10_000.0, core=True),
+        _p("sigma_c", "compressive strength", "MPa", "MPa", 1e6, "ksi", "ksi", 1e-3, 20_000.0, core=True),
+        _p("elongation", "elongation at break", "percent", "%", 0.01, "percent", "%", 0.0, 1500.0, positive=False),
+        _p("K_IC", "fracture toughness", "MPa*m^0.5", "MPa·m½", 1e6, "ksi*in^0.5", "ksi·in½", 1e-4, 300.0),
+        _p("sigma_e", "fatigue strength at 10^7 cycles", "MPa", "MPa", 1e6, "ksi", "ksi", 1e-4, 5_000.0),
+        _p("T_max", "maximum service temperature", "degC", "°C", 1.0, "degF", "°F", -273.15, 4000.0, log=False, positive=False),
+        _p("T_min", "minimum service temperature", "degC", "°C", 1.0, "degF", "°F", -273.15, 4000.0, log=False, positive=False),
+        _p("lambda", "thermal conductivity", "W/(m*K)", "W/(m·K)", 1.0, "BTU/(hour*foot*degF)", "BTU/(h·ft·°F)", 1e-3, 2500.0),
+        _p("alpha", "thermal expansion coefficient", "1e-6/K", "µstrain/K", 1e-6, "1e-6/degF", "µstrain/°F", 1e-2, 1000.0),
+        _p("c_p", "specific heat", "J/(kg*K)", "J/(kg·K)", 1.0, "BTU/(lb*degF)", "BTU/(lb·°F)", 50.0, 10_000.0),
+        _p("price", "price", "USD/kg", "USD/kg", 1.0, "USD/lb", "USD/lb", 1e-3, 100_000.0, core=True),
+        _p("co2", "embodied CO2, primary production", "kg/kg", "kg CO2e/kg", 1.0, "lb/lb", "lb CO2e/lb", 1e-3, 1000.0),
+        _p("energy", "embodied energy, primary production", "MJ/kg", "MJ/kg", 1e6, "BTU/lb", "BTU/lb", 1e-2, 10_000.0),
+    )
+}
+"""Every property, keyed by symbol, in the order of the data table."""
+
+FAMILIES: tuple[str, ...] = (
+    "metal", "polymer", "composite", "ceramic", "glass", "foam", "natural", "elastomer", "mineral",
+)
+"""The nine families, in the order that fixes their chart colours."""
+
+RATINGS: dict[str, str] = {
+    "fresh_water": "resistance to fresh water",
+    "salt_water": "resistance to salt water",
+    "uv": "resistance to sunlight (UV)",
+    "flammability": "resistance to burning",
+}
+"""Durability ratings; every one reads 'higher is better'."""
+
+RATING_LEVELS: tuple[str, ...] = ("poor", "fair", "good", "excellent")
+"""Our rating scale, worst to best."""
+
+NOT_APPLICABLE = "n/a"
+"""Written in a data cell where a property truly does not apply to a class."""
+
+TEXT_COLUMNS: tuple[str, ...] = ("id", "name", "family", "note", "source")
+
+
+def data_columns() -> list[str]:
+    """Every column of a complete materials table, in order."""
+    cols = ["id", "name", "family"]
+    for prop in PROPERTIES.values():
+        cols += [prop.low, prop.high]
+    return cols + list(RATINGS) + ["note", "source"]
+
+
+def get(symbol: str) -> Property:
+    """The property with this symbol; raises InputError naming the nearest ones."""
+    try:
+        return PROPERTIES[symbol]
+    except KeyError:
+        from selector.errors import InputError
+        from selector.suggest import did_you_mean
+
+        raise InputError("property", f"unknown property {symbol!r}", did_you_mean(symbol, PROPERTIES)) from None

@@ -1,0 +1,144 @@
+"""Screens: hard limits on properties, ratings and families.
+
+Each class *passes* (its whole range qualifies), passes *partly* (only part of
+its range does) or is *rejected*; every reason is kept.
+"""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Mapping
+from dataclasses import dataclass
+from typing import Any
+
+import numpy as np
+import pandas as pd
+
+from selector.errors import InputError
+from selector.properties import PROPERTIES, RATING_LEVELS, RATINGS
+from selector.units import format_number
+
+PASSES, PARTLY, REJECTED = "passes", "partly", "rejected"
+_LIMIT = re.compile(r"^\s*(>=|<=|>|<|≥|≤)\s*(.+?)\s*$")
+_OPS = {">": ">=", "≥": ">=", "<": "<=", "≤": "<="}
+
+
+@dataclass(frozen=True)
+class Limit:
+    """One screen: ``symbol op value`` with the value in the stored unit (or a rating level)."""
+
+    symbol: str
+    op: str  # ">=" or "<="
+    value: float
+    text: str
+
+    @property
+    def is_rating(self) -> bool:
+        return self.symbol in RATINGS
+
+    def describe(self) -> str:
+        if self.is_rating:
+            return f"{self.symbol} {self.op} {RATING_LEVELS[int(self.value)]}"
+        return f"{self.symbol} {self.op} {format_number(self.value)} {PROPERTIES[self.symbol].label}"
+
+
+@dataclass(frozen=True)
+class Screens:
+    """All screens of a spec."""
+
+    limits: tuple[Limit, ...] = ()
+    families: tuple[str, ...] = ()
+    exclude_families: tuple[str, ...] = ()
+    exclude: tuple[str, ...] = ()
+
+
+def parse_limit(symbol: str, text: str, where: str = "screen") -> Limit:
+    """Parse ``">= 60 degC"`` (or ``">= good"`` for a rating) for property ``symbol``."""
+    loc = f"{where}.{symbol}"
+    match = _LIMIT.match(text) if isinstance(text, str) else None
+    if not match:
+        raise InputError(loc, f"cannot read limit {text!r}", 'a comparison and a value, e.g. ">= 60 degC"')
+    op = _OPS.get(match.group(1), match.group(1))
+    raw = match.group(2)
+    if symbol in RATINGS:
+        if raw not in RATING_LEVELS:
+            raise InputError(loc, f"{raw!r} is not a rating", f"one of: {', '.join(RATING_LEVELS)}")
+        return Limit(symbol, op, float(RATING_LEVELS.index(raw)), text)
+    prop = PROPERTIES[symbol]
+    if prop.stored in ("dimensionless", "percent"):
+        try:
+            return Limit(symbol, op, float(raw.rstrip("%").strip()), text)
+        except ValueError:
+            pass
+    from selector.units import magnitude_in
+
+    return Limit(symbol, op, magnitude_in(raw, prop.stored, loc), text)
+
+
+def parse_screens(screen: Mapping[str, Any], where: str = "screen") -> Screens:
+    """Turn a spec's ``[screen]`` table into Screens."""
+    limits = [parse_limit(k, v, where) for k, v in screen.items() if k in PROPERTIES or k in RATINGS]
+    return Screens(
+        limits=tuple(limits),
+        families=tuple(screen.get("families", ())),
+        exclude_families=tuple(screen.get("exclude_families", ())),
+        exclude=tuple(screen.get("exclude", ())),
+    )
+
+
+def apply_screens(table: pd.DataFrame, screens: Screens) -> pd.DataFrame:
+    """A copy of ``table`` with ``status`` and ``reasons`` columns added."""
+    n = len(table)
+    rejected = np.zeros(n, dtype=bool)
+    partly = np.zeros(n, dtype=bool)
+    reasons: list[list[str]] = [[] for _ in range(n)]
+
+    def note(mask: np.ndarray, text_of) -> None:
+        for i in np.flatnonzero(mask):
+            reasons[i].append(text_of(i))
+
+    family = table["family"].to_numpy()
+    if screens.families:
+        out = ~np.isin(family, screens.families)
+        rejected |= out
+        note(out, lambda i: f"family {family[i]} is not among {', '.join(screens.families)}")
+    if screens.exclude_families:
+        out = np.isin(family, screens.exclude_families)
+        rejected |= out
+        note(out, lambda i: f"family {family[i]} is excluded")
+    if screens.exclude:
+        out = table["id"].isin(screens.exclude).to_numpy()
+        rejected |= out
+        note(out, lambda i: "excluded by id")
+
+    for limit in screens.limits:
+        if limit.is_rating:
+            levels = table[limit.symbol].map({v: k for k, v in enumerate(RATING_LEVELS)})
+            low = high = levels.to_numpy(dtype=float)
+            shown = table[limit.symbol].to_numpy()
+            show = lambda i, shown=shown: str(shown[i])  # noqa: E731
+        else:
+            prop = PROPERTIES[limit.symbol]
+            low = table[prop.low].to_numpy(dtype=float)
+            high = table[prop.high].to_numpy(dtype=float)
+            show = lambda i, lo=low, hi=high, u=prop.label: (  # noqa: E731
+                f"{format_number(lo[i])}–{format_number(hi[i])} {u}"
+            )
+        missing = np.isnan(low) | np.isnan(high)
+        if limit.op == ">=":
+            fail, part = high < limit.value, (low < limit.value) & (high >= limit.value)
+        else:
+            fail, part = low > limit.value, (high > limit.value) & (low <= limit.value)
+        fail &= ~missing
+        part &= ~missing
+        rejected |= fail | missing
+        partly |= part
+        note(missing, lambda i, s=limit.symbol: f"no data for {s}")
+        note(fail, lambda i, lim=limit, show=show: f"{lim.symbol} {show(i)} fails {lim.describe()}")
+        note(part, lambda i, lim=limit, show=show: f"only part of {lim.symbol} {show(i)} meets {lim.describe()}")
+
+    status = np.where(rejected, REJECTED, np.where(partly, PARTLY, PASSES))
+    out = table.copy()
+    out["status"] = status
+    out["reasons"] = reasons
+    return out

@@ -1,0 +1,147 @@
+"""The pipeline: spec → screen → derive → size → rank, gathered into one Selection."""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+
+import pandas as pd
+
+from selector.derive import OBJECTIVE_UNITS, Derivation, derive_for_case
+from selector.errors import InputError
+from selector.mechanics.loadcases import load_case
+from selector.properties import PROPERTIES
+from selector.rank import monomial_index, rank_by_index, rank_by_value
+from selector.screen import Screens, apply_screens, parse_screens
+from selector.sizing import DEFAULT_DIMS, Design, missing_inputs, size_parts
+from selector.spec import DIMENSION_FIELDS, QUANTITY_FIELDS, Spec
+
+SYMBOL_OF_FIELD = {
+    "length": "L", "force": "F", "torque": "T", "pressure": "p", "energy": "U", "width": "b", "radius": "r",
+}
+FIELD_OF_SYMBOL = {v: k for k, v in SYMBOL_OF_FIELD.items()} | {
+    "delta": "max_deflection", "theta": "max_twist", "d": "section.d", "h": "section.h",
+}
+CAUTION = (
+    "Preliminary selection only: use certified design-allowable data for the chosen grade, "
+    "appropriate safety factors, and defer to local codes and licensed engineering review."
+)
+
+
+@dataclass(frozen=True)
+class Selection:
+    """Everything one run of the pipeline found.
+
+    Attributes:
+        spec: the requirement.
+        screens: the parsed screens.
+        derivations: one per constraint, the first ranks when no loads are given.
+        table: every class with status, reasons, index columns, rank and (when sized) the part.
+        ranked_by: "index" or the objective (mass, cost, co2, volume).
+        objective_unit: unit of the objective columns when sized.
+        notes: assumptions and warnings worth showing.
+    """
+
+    spec: Spec
+    screens: Screens
+    derivations: tuple[Derivation, ...]
+    table: pd.DataFrame
+    ranked_by: str
+    objective_unit: str = ""
+    notes: tuple[str, ...] = field(default=())
+    caution: str = CAUTION
+
+    @property
+    def sized(self) -> bool:
+        return self.ranked_by != "index"
+
+    @property
+    def shortlist(self) -> pd.DataFrame:
+        """The ranked candidates (passes and partly), best first."""
+        return self.table[self.table["rank"].notna()].reset_index(drop=True)
+
+    @property
+    def rejected(self) -> pd.DataFrame:
+        return self.table[self.table["rank"].isna()].reset_index(drop=True)
+
+
+def design_of(spec: Spec, shape: str) -> Design:
+    """Loads, limits and reference section dimensions of a spec, in SI."""
+    from selector.units import magnitude_in
+
+    values: dict[str, float] = {}
+    for name, unit in QUANTITY_FIELDS.items():
+        text = getattr(spec.part, name)
+        if text is not None:
+            values[SYMBOL_OF_FIELD[name]] = magnitude_in(text, unit, f"part.{name}")
+    dims = {k: magnitude_in(v, "m", f"section.{k}") for k, v in spec.section.dims.items()}
+    limits: dict[str, dict[str, float]] = {}
+    for i, c in enumerate(spec.constraint):
+        lim = {"SF": c.safety_factor}
+        if c.max_deflection is not None:
+            lim["delta"] = magnitude_in(c.max_deflection, "m", f"constraint[{i}].max_deflection")
+        if c.max_twist is not None:
+            lim["theta"] = magnitude_in(c.max_twist, "radian", f"constraint[{i}].max_twist")
+        limits[c.type] = lim
+    fn = spec.part.function
+    if fn == "panel":
+        shape = "rectangle"
+        if "b" in values:
+            dims.setdefault("b", values["b"])
+        dims.setdefault("h", dims.pop("t", dims.get("b", 1.0) / 20))
+    elif fn not in ("cylinder", "sphere", "plate", "spring"):
+        if spec.section.free == "scale" and not dims:
+            dims = dict(DEFAULT_DIMS.get(shape, {}))
+        elif spec.section.free in ("depth", "width", "wall"):
+            base = dict(DEFAULT_DIMS.get(shape, {}))
+            if "b" in values and "b" not in dims:
+                dims["b"] = values["b"]
+            dims = base | dims if dims else base
+    return Design(values, limits, shape, dims, spec.section.free)
+
+
+def select(spec: Spec, materials: pd.DataFrame | None = None, conservative: bool = False) -> Selection:
+    """Run the whole pipeline for a spec over a materials table (the built-in one by default)."""
+    if materials is None:
+        from selector.materials import load_materials
+
+        materials = load_materials(spec.materials.files, builtin=spec.materials.builtin)
+    if not spec.constraint:
+        raise InputError("spec: constraint", "the spec has no [[constraint]]", "at least one constraint table")
+    case = load_case(spec.part.function, spec.part.support, spec.part.load)
+    seen: set[str] = set()
+    derivations = []
+    for i, c in enumerate(spec.constraint):
+        if c.type in seen:
+            raise InputError(f"spec: constraint[{i}].type", f"{c.type!r} is given twice", "each type once")
+        seen.add(c.type)
+        derivations.append(derive_for_case(case, c.type, spec.objective.minimize, spec.section.free))
+    screens = parse_screens(spec.screen)
+    screened = apply_screens(materials.reset_index(drop=True), screens)
+    first = derivations[0]
+    low, high, typ = monomial_index(screened, first.exponents)
+    table = rank_by_index(screened, low, high, typ, conservative, needs=tuple(first.exponents))
+    for d in derivations[1:]:
+        _, _, extra = monomial_index(table, d.exponents)
+        table[f"index_{d.constraint}"] = extra
+    notes = list(case.notes)
+    shape = spec.section.shape
+    if shape == "generic" and spec.section.free == "scale":
+        notes.append("section: a generic solid square at fixed proportions (set [section] shape to size a real one)")
+    design = design_of(spec, shape)
+    missing = missing_inputs(derivations, design)
+    if missing:
+        names = ", ".join(FIELD_OF_SYMBOL.get(s, s) for s in missing)
+        notes.append(f"ranked by merit index; to size parts the spec also needs: {names}")
+        return Selection(spec, screens, tuple(derivations), table, "index", notes=tuple(notes))
+    sized = size_parts(table, derivations, design)
+    table = pd.concat([table, sized], axis=1)
+    objective = spec.objective.minimize
+    table["objective"] = table[objective].where(table["feasible"].fillna(False).astype(bool), math.inf)
+    table = rank_by_value(table, "objective", "objective_low", "objective_high")
+    return Selection(
+        spec, screens, tuple(derivations), table, objective, OBJECTIVE_UNITS[objective], notes=tuple(notes)
+    )
+
+
+__all__ = ["CAUTION", "PROPERTIES", "DIMENSION_FIELDS", "Selection", "design_of", "select"]

@@ -1,0 +1,251 @@
+"""Size every candidate class into a real part.
+
+For each class: the smallest part meeting every constraint of the spec, its
+dimensions, mass, cost, CO2, deflection and peak stress at the load, each
+constraint's utilisation and the governing constraint.
+
+The free variable is solved in closed form from the derived monomials; the
+part is then rebuilt as a real section and every utilisation evaluated from
+its exact properties. Where the monomial section model is only approximate
+(thin-wall formulas, shapes other than a rectangle with one dimension free) a
+bracketed 1-D root finder on the exact section corrects the size.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Mapping
+from dataclasses import dataclass
+
+import numpy as np
+import pandas as pd
+
+from selector.derive import Derivation
+from selector.errors import InputError
+from selector.mechanics import sections as sec
+from selector.properties import PROPERTIES
+
+MIN_PRACTICAL_WALL = 0.5e-3
+"""Walls thinner than this [m] get a warning (common practice for formed or cast parts, no source)."""
+THIN_WALL_RATIO = 50.0
+"""d/t (or b/t) above which local buckling of a wall should be checked (common practice, no source)."""
+
+DEFAULT_DIMS: dict[str, dict[str, float]] = {
+    # Reference proportions when the spec gives none (only ratios matter when the scale is free).
+    "generic": {"b": 1.0, "h": 1.0},
+    "rectangle": {"b": 1.0, "h": 2.0},
+    "round": {"d": 1.0},
+    "tube": {"d": 1.0, "t": 0.1},
+    "box": {"b": 1.0, "h": 1.5, "t": 0.1},
+    "i-section": {"b": 0.5, "h": 1.0, "tf": 0.06, "tw": 0.04},
+    "channel": {"b": 0.4, "h": 1.0, "tf": 0.06, "tw": 0.04},
+    "angle": {"b": 1.0, "h": 1.0, "t": 0.1},
+    "tee": {"b": 1.0, "h": 1.0, "tf": 0.1, "tw": 0.08},
+}
+FREE_DIMENSION = {"depth": "h", "width": "b", "thickness": "h", "wall": "t"}
+
+
+def section_quantities(section: sec.Section) -> dict[str, float]:
+    """The section quantities the load cases use: A, I, Z, J, Zt [SI]."""
+    return {"A": section.area, "I": section.Ixx, "Z": section.Zx, "J": section.J, "Zt": section.Zt}
+
+
+def shape_constants(shape: str, dims: Mapping[str, float]) -> dict[str, float]:
+    """k_I = I/A², k_Z = Z/A^1.5, k_J = J/A², k_Zt = Zt/A^1.5 of a shape at these proportions."""
+    q = section_quantities(build(shape, dims))
+    a = q["A"]
+    return {"k_I": q["I"] / a**2, "k_Z": q["Z"] / a**1.5, "k_J": q["J"] / a**2, "k_Zt": q["Zt"] / a**1.5}
+
+
+def build(shape: str, dims: Mapping[str, float]) -> sec.Section:
+    """A real section; the generic shape is a solid square."""
+    return sec.build_section("rectangle" if shape == "generic" else shape, dict(dims))
+
+
+@dataclass(frozen=True)
+class Design:
+    """What the sizing needs beyond the material: loads, limits and the section (SI)."""
+
+    values: dict[str, float]  # F, L, T, p, U, b, r, d, ... and delta, theta, SF per constraint
+    limits: dict[str, dict[str, float]]  # constraint type → {delta|theta: ..., SF: ...}
+    shape: str
+    dims: dict[str, float]  # reference dimensions [m]
+    free: str
+
+
+def missing_inputs(derivations: list[Derivation], design: Design) -> list[str]:
+    """Symbols the closed-form sizes need that the spec does not give."""
+    need: set[str] = set()
+    for d in derivations:
+        need |= set(d.solution.symbols) - set(PROPERTIES) - {"k_I", "k_Z", "k_J", "k_Zt"}
+    have = set(design.values) | {k for lim in design.limits.values() for k in lim} | set(design.dims)
+    return sorted(need - have)
+
+
+def _si(table: pd.DataFrame, symbols: set[str], pick: str) -> dict[str, np.ndarray]:
+    out = {}
+    for s in symbols & set(PROPERTIES):
+        prop = PROPERTIES[s]
+        lo = table[prop.low].to_numpy(dtype=float) * prop.si_factor
+        hi = table[prop.high].to_numpy(dtype=float) * prop.si_factor
+        out[s] = {"low": lo, "high": hi, "mid": np.sqrt(lo * hi)}[pick]
+    return out
+
+
+def _inputs(d: Derivation, design: Design, constants: Mapping[str, float]) -> dict[str, float]:
+    values = dict(design.dims) | dict(design.values) | dict(constants)
+    values.update(design.limits.get(d.constraint, {}))
+    return values
+
+
+def size_parts(table: pd.DataFrame, derivations: list[Derivation], design: Design) -> pd.DataFrame:
+    """Size every row of ``table``; returns new columns (one row per class, same order)."""
+    ref = dict(design.dims)
+    shape = design.shape
+    if design.free == "scale" and derivations[0].case.function not in ("spring",):
+        constants = shape_constants(shape, ref)
+    else:
+        constants = {}
+    symbols = set().union(*(d.objective_value.symbols | d.solution.symbols for d in derivations))
+    mid = _si(table, symbols, "mid")
+    x_each = {d.constraint: d.solution.evaluate(mid | _inputs(d, design, constants)) for d in derivations}
+    x_stack = np.vstack([np.broadcast_to(v, len(table)) for v in x_each.values()])
+    x = np.nanmax(x_stack, axis=0)
+    cols: dict[str, object] = {}
+    # Objective ranges from the monomials at the unfavourable / favourable property ends.
+    for end, label in (("low", "best"), ("high", "worst")):
+        values = []
+        for d in derivations:
+            exps = d.objective_value.exponents
+            props = {}
+            for s in d.objective_value.symbols & set(PROPERTIES):
+                lo_hi = _si(table, {s}, "high" if (exps[s] > 0) == (label == "worst") else "low")
+                props.update(lo_hi)
+            values.append(d.objective_value.evaluate(props | _inputs(d, design, constants)))
+        cols[f"objective_{label}"] = np.nanmax(np.vstack([np.broadcast_to(v, len(table)) for v in values]), axis=0)
+    rows = [
+        _one_part(table.iloc[i], x[i], derivations, design, mid, i, constants) for i in range(len(table))
+    ]
+    frame = pd.DataFrame(rows, index=table.index)
+    frame["objective_low"] = cols["objective_best"]
+    frame["objective_high"] = cols["objective_worst"]
+    return frame
+
+
+def _dims_for(design: Design, x: float, fn: str) -> dict[str, float]:
+    ref = dict(design.dims)
+    if fn in ("cylinder", "sphere", "plate"):
+        return {"t": x}
+    if fn == "spring":
+        return {"V": x}
+    if design.free == "scale":
+        area = build(design.shape, ref).area
+        factor = math.sqrt(x / area)
+        return {k: v * factor for k, v in ref.items()}
+    ref[FREE_DIMENSION[design.free]] = x
+    return ref
+
+
+def _one_part(row, x, derivations, design, mid, i, constants) -> dict[str, object]:
+    fn = derivations[0].case.function
+    case = derivations[0].case
+    props = {k: v[i] for k, v in mid.items()}
+    for s in ("E", "G", "sigma_y", "sigma_c", "rho", "price", "co2"):
+        if s not in props:
+            prop = PROPERTIES[s]
+            props[s] = math.sqrt(row[prop.low] * row[prop.high]) * prop.si_factor
+    warnings: list[str] = []
+    if not np.isfinite(x) or x <= 0:
+        return {"feasible": False, "size_warnings": ["cannot be sized (missing property data)"]}
+    dims = _dims_for(design, float(x), fn)
+    geometry = _geometry_values(design, dims, fn)
+    if geometry is None:
+        return {"feasible": False, "size_warnings": ["no valid section of this shape meets the constraints"]}
+    if _approximate(design, fn):
+        dims, geometry = _refine(design, dims, derivations, props, fn)
+        if geometry is None:
+            return {"feasible": False, "size_warnings": ["no valid section of this shape meets the constraints"]}
+    values = dict(design.values) | geometry | props
+    util = {}
+    for d in derivations:
+        v = values | design.limits.get(d.constraint, {})
+        util[d.constraint] = float(case.utilisation[d.constraint].evaluate(v))
+    governing = max(util, key=util.get)
+    volume = float(case.volume.evaluate(values))
+    mass = volume * props["rho"]
+    responses = {name: float(m.evaluate(values)) for name, m in case.responses.items() if m.symbols <= set(values)}
+    wall = dims.get("t") or dims.get("tw")
+    if wall is not None and wall < MIN_PRACTICAL_WALL:
+        warnings.append(f"wall {wall * 1e3:.2g} mm is thinner than a practical minimum of 0.5 mm")
+    outer = dims.get("d") or max(dims.get("b", 0.0), dims.get("h", 0.0)) or dims.get("r", 0.0) * 2
+    if wall and outer and outer / wall > THIN_WALL_RATIO:
+        warnings.append(f"slender wall (ratio {outer / wall:.0f}): check local buckling")
+    return {
+        "feasible": True,
+        "dimensions": dims,
+        "mass": mass,
+        "cost": mass * props["price"],
+        "co2": mass * props["co2"],
+        "volume": volume,
+        "deflection": responses.get("deflection", float("nan")),
+        "twist": responses.get("twist", float("nan")),
+        "stress": responses.get("stress", float("nan")),
+        "utilisation": util,
+        "governing": governing,
+        "size_warnings": warnings,
+    }
+
+
+def _approximate(design: Design, fn: str) -> bool:
+    """True where the closed-form size came from an approximate section model."""
+    if fn in ("cylinder", "sphere", "plate", "spring", "tie") or design.free == "scale":
+        return False
+    if design.free in ("depth", "width", "thickness") and design.shape in ("rectangle", "generic"):
+        return False
+    return True
+
+
+def _geometry_values(design: Design, dims: dict[str, float], fn: str) -> dict[str, float] | None:
+    """Section quantities and fixed geometry for evaluating the load case exactly."""
+    if fn in ("cylinder", "sphere"):
+        return {"t": dims["t"], "r": design.values["r"]}
+    if fn == "plate":
+        return {"t": dims["t"], "b": design.values["b"]}
+    if fn == "spring":
+        return {"V": dims["V"]}
+    try:
+        return section_quantities(build(design.shape, dims)) | {"b": dims.get("b", 0.0)}
+    except InputError:
+        return None
+
+
+def _refine(design, dims, derivations, props, fn):
+    """Bisection (in log space) on the free dimension so the largest utilisation is 1."""
+    name = FREE_DIMENSION[design.free]
+    case = derivations[0].case
+
+    def worst(value: float) -> float:
+        trial = dict(dims)
+        trial[name] = value
+        geo = _geometry_values(design, trial, fn)
+        if geo is None:
+            return math.inf
+        vals = dict(design.values) | geo | props
+        return max(
+            float(case.utilisation[d.constraint].evaluate(vals | design.limits.get(d.constraint, {})))
+            for d in derivations
+        )
+
+    lo, hi = dims[name] * 1e-3, dims[name] * 1e3
+    if worst(hi) > 1 and not math.isfinite(worst(hi)):
+        # Shrink the upper bracket to the largest valid dimension.
+        while hi > lo and not math.isfinite(worst(hi)):
+            hi /= 1.05
+    if worst(hi) > 1:
+        return dims, None
+    for _ in range(80):
+        m = math.sqrt(lo * hi)
+        lo, hi = (m, hi) if worst(m) > 1 else (lo, m)
+    out = dict(dims)
+    out[name] = hi
+    return out, _geometry_values(design, out, fn)

@@ -1,0 +1,220 @@
+"""The spec: a design requirement read from TOML (or built in Python), validated with pydantic.
+
+Errors name the field path, the value and what is expected, and suggest the
+nearest valid key for a misspelt one.
+"""
+
+from __future__ import annotations
+
+import tomllib
+from pathlib import Path
+from typing import Any
+
+from pydantic import BaseModel, ConfigDict, Field, ValidationError, field_validator
+
+from selector.derive import FREE_VARIABLES, OBJECTIVES
+from selector.errors import InputError
+from selector.mechanics.loadcases import CONSTRAINTS, FUNCTIONS
+from selector.properties import FAMILIES, PROPERTIES, RATINGS
+from selector.suggest import did_you_mean
+
+QUANTITY_FIELDS: dict[str, str] = {
+    "length": "m",
+    "force": "N",
+    "torque": "N*m",
+    "pressure": "Pa",
+    "energy": "J",
+    "width": "m",
+    "radius": "m",
+}
+DIMENSION_FIELDS = ("b", "h", "d", "t", "tf", "tw")
+
+
+class _Strict(BaseModel):
+    model_config = ConfigDict(extra="forbid", frozen=True)
+
+
+class Part(_Strict):
+    """What the part is and what it carries. Quantities are text with units ("1.8 m")."""
+
+    function: str
+    support: str | None = None
+    load: str | None = None
+    length: str | None = None
+    force: str | None = None
+    torque: str | None = None
+    pressure: str | None = None
+    energy: str | None = None
+    width: str | None = None
+    radius: str | None = None
+
+    @field_validator("function")
+    @classmethod
+    def _known_function(cls, value: str) -> str:
+        if value not in FUNCTIONS:
+            raise ValueError(f"{value!r} is not a function; {did_you_mean(value, FUNCTIONS)}")
+        return value
+
+
+class SectionSpec(_Strict):
+    """The cross-section: its shape, what may change, and its reference dimensions."""
+
+    shape: str = "generic"
+    free: str = "scale"
+    b: str | None = None
+    h: str | None = None
+    d: str | None = None
+    t: str | None = None
+    tf: str | None = None
+    tw: str | None = None
+
+    @field_validator("free")
+    @classmethod
+    def _known_free(cls, value: str) -> str:
+        if value not in FREE_VARIABLES:
+            raise ValueError(f"{value!r} is not a free variable; {did_you_mean(value, FREE_VARIABLES)}")
+        return value
+
+    @property
+    def dims(self) -> dict[str, str]:
+        """The dimensions given, name → quantity text."""
+        return {k: getattr(self, k) for k in DIMENSION_FIELDS if getattr(self, k) is not None}
+
+
+class Objective(_Strict):
+    minimize: str = "mass"
+
+    @field_validator("minimize")
+    @classmethod
+    def _known_objective(cls, value: str) -> str:
+        if value not in OBJECTIVES:
+            raise ValueError(f"{value!r} is not an objective; {did_you_mean(value, OBJECTIVES)}")
+        return value
+
+
+class Constraint(_Strict):
+    """One requirement the part must meet; limits are quantities with units."""
+
+    type: str
+    max_deflection: str | None = None
+    max_twist: str | None = None
+    safety_factor: float = Field(default=1.0, gt=0)
+
+    @field_validator("type")
+    @classmethod
+    def _known_type(cls, value: str) -> str:
+        if value not in CONSTRAINTS:
+            raise ValueError(f"{value!r} is not a constraint type; {did_you_mean(value, CONSTRAINTS)}")
+        return value
+
+
+class Materials(_Strict):
+    files: list[str] = Field(default_factory=list)
+    builtin: bool = True
+
+
+SCREEN_KEYS = (*PROPERTIES, *RATINGS, "families", "exclude_families", "exclude")
+
+
+class Spec(_Strict):
+    """A design requirement: function, objective, constraints, free variable, screens."""
+
+    title: str = "Untitled part"
+    notes: str = ""
+    units: str = "si"
+    part: Part
+    section: SectionSpec = Field(default_factory=SectionSpec)
+    objective: Objective = Field(default_factory=Objective)
+    constraint: list[Constraint] = Field(default_factory=list)
+    screen: dict[str, Any] = Field(default_factory=dict)
+    materials: Materials = Field(default_factory=Materials)
+
+    @field_validator("units")
+    @classmethod
+    def _known_units(cls, value: str) -> str:
+        if value not in ("si", "us"):
+            raise ValueError(f"{value!r} is not a units system; expected 'si' or 'us'")
+        return value
+
+    @field_validator("screen")
+    @classmethod
+    def _known_screens(cls, value: dict[str, Any]) -> dict[str, Any]:
+        for key, limit in value.items():
+            if key not in SCREEN_KEYS:
+                raise ValueError(f"unknown screen {key!r}; {did_you_mean(key, SCREEN_KEYS)}")
+            if key in ("families", "exclude_families"):
+                if not isinstance(limit, list) or any(f not in FAMILIES for f in limit):
+                    bad = limit if not isinstance(limit, list) else [f for f in limit if f not in FAMILIES]
+                    raise ValueError(f"{key} = {bad!r}; expected a list of: {', '.join(FAMILIES)}")
+            elif key == "exclude":
+                if not isinstance(limit, list) or not all(isinstance(i, str) for i in limit):
+                    raise ValueError(f"exclude = {limit!r}; expected a list of class ids")
+            elif not isinstance(limit, str):
+                raise ValueError(f"screen {key} = {limit!r}; expected text such as \">= 60 degC\"")
+        return value
+
+
+def _location(loc: tuple[int | str, ...]) -> str:
+    out = ""
+    for part in loc:
+        out += f"[{part}]" if isinstance(part, int) else (f".{part}" if out else str(part))
+    return out
+
+
+def _fields_of(model: type[BaseModel], loc: tuple[int | str, ...]) -> list[str]:
+    """Valid field names at ``loc`` inside ``model`` (for suggestions)."""
+    current: Any = model
+    for part in loc[:-1]:
+        if isinstance(part, int):
+            continue
+        info = current.model_fields.get(part)
+        if info is None:
+            return []
+        ann = info.annotation
+        args = getattr(ann, "__args__", ())
+        candidates = [ann, *args]
+        current = next((c for c in candidates if isinstance(c, type) and issubclass(c, BaseModel)), None)
+        if current is None:
+            return []
+    return list(current.model_fields)
+
+
+def spec_from_dict(data: dict[str, Any], source: str = "spec") -> Spec:
+    """Validate a spec given as nested dicts; raises InputError on the first problem."""
+    try:
+        return Spec.model_validate(data)
+    except ValidationError as exc:
+        errors = exc.errors()
+        first = errors[0]
+        loc = tuple(first["loc"])
+        path = _location(loc)
+        more = f" (and {len(errors) - 1} more problems)" if len(errors) > 1 else ""
+        if first["type"] == "extra_forbidden":
+            key = str(loc[-1])
+            raise InputError(
+                f"{source}: {path}", f"unknown key {key!r}{more}", did_you_mean(key, _fields_of(Spec, loc))
+            ) from None
+        if first["type"] == "missing":
+            raise InputError(f"{source}: {path}", f"required field is missing{more}", "see examples/") from None
+        message = first["msg"].removeprefix("Value error, ")
+        what, _, expected = message.partition("; ")
+        value = first.get("input")
+        if not expected:
+            what, expected = f"{value!r} is not valid", message
+        raise InputError(f"{source}: {path}", what + more, expected) from None
+
+
+def load_spec(path: str | Path) -> Spec:
+    """Read and validate a spec file (TOML)."""
+    file = Path(path)
+    try:
+        text = file.read_text(encoding="utf-8")
+    except FileNotFoundError:
+        raise InputError(str(file), "no such file", "the path of a spec file (TOML)") from None
+    except (OSError, UnicodeDecodeError) as exc:
+        raise InputError(str(file), f"cannot be read ({exc.__class__.__name__})", "a UTF-8 TOML file") from None
+    try:
+        data = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        raise InputError(str(file), f"is not valid TOML: {exc}", "TOML as in examples/") from None
+    return spec_from_dict(data, source=str(file))

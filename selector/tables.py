@@ -1,0 +1,323 @@
+"""Turn results into tables for people (terminal, Markdown) and machines (CSV, JSON).
+
+Only presentation lives here: unit conversion for display, significant figures,
+and the JSON shape in which every physical number carries its unit.
+"""
+
+from __future__ import annotations
+
+import json
+import math
+from collections.abc import Sequence
+from typing import Any
+
+import numpy as np
+import pandas as pd
+
+from selector.errors import InputError
+from selector.properties import PROPERTIES, RATINGS
+from selector.units import format_number
+
+SUMMARY_PROPERTIES = ("rho", "E", "sigma_y", "sigma_ts", "T_max", "price")
+LENGTH_UNIT = {"si": "mm", "us": "in"}
+MASS_UNIT = {"si": "kg", "us": "lb"}
+_LENGTH_FACTOR = {"si": 1e3, "us": 1 / 0.0254}
+_MASS_FACTOR = {"si": 1.0, "us": 1 / 0.45359237}
+_STRESS = {"si": ("MPa", 1e-6), "us": ("ksi", 1 / 6.894757293168361e6)}
+ANGLE_UNIT = "deg"
+
+
+def format_for(path: str | None) -> str:
+    """Output format from a file name's extension (table when writing to the terminal)."""
+    if not path:
+        return "table"
+    ext = path.rsplit(".", 1)[-1].lower() if "." in path else ""
+    formats = {"csv": "csv", "json": "json", "md": "md", "xlsx": "xlsx", "txt": "table"}
+    if ext not in formats:
+        raise InputError(f"-o {path}", f"unknown file extension {ext!r}", "one of .csv, .json, .md, .xlsx, .txt")
+    return formats[ext]
+
+
+def property_unit(symbol: str, units: str) -> str:
+    """Display unit label of a property in the chosen system."""
+    prop = PROPERTIES[symbol]
+    return prop.us_label if units == "us" else prop.label
+
+
+def property_values(table: pd.DataFrame, symbol: str, units: str) -> tuple[np.ndarray, np.ndarray]:
+    """(low, high) of a property in display units."""
+    prop = PROPERTIES[symbol]
+    low = table[prop.low].to_numpy(dtype=float)
+    high = table[prop.high].to_numpy(dtype=float)
+    if units == "us" and prop.us != prop.stored:
+        from selector.units import convert
+
+        low, high = convert(low, prop.stored, prop.us), convert(high, prop.stored, prop.us)
+    return low, high
+
+
+def _range(low: float, high: float) -> str:
+    if np.isnan(low) and np.isnan(high):
+        return "n/a"
+    if low == high:
+        return format_number(low)
+    return f"{format_number(low)}–{format_number(high)}"
+
+
+def materials_frame(
+    table: pd.DataFrame, families: Sequence[str] = (), search: str | None = None, units: str = "si"
+) -> pd.DataFrame:
+    """The classes with every property's low and high in display units (one column each)."""
+    rows = table
+    if families:
+        rows = rows[rows["family"].isin(families)]
+    if search:
+        text = search.lower()
+        rows = rows[rows["id"].str.lower().str.contains(text, regex=False) | rows["name"].str.lower().str.contains(text, regex=False)]
+    out = rows[["id", "name", "family"]].copy()
+    for symbol in PROPERTIES:
+        unit = property_unit(symbol, units)
+        low, high = property_values(rows, symbol, units)
+        out[f"{symbol}_low [{unit}]"] = low
+        out[f"{symbol}_high [{unit}]"] = high
+    for rating in RATINGS:
+        out[rating] = rows[rating].to_numpy()
+    out["source"] = rows["source"].to_numpy()
+    return out.reset_index(drop=True)
+
+
+def class_frame(table: pd.DataFrame, class_id: str, units: str = "si") -> pd.DataFrame:
+    """One class as a property / low / high / unit table."""
+    match = table[table["id"] == class_id]
+    if match.empty:
+        from selector.suggest import did_you_mean
+
+        raise InputError("materials show", f"no class with id {class_id!r}", did_you_mean(class_id, table["id"]))
+    row = match.iloc[[0]]
+    records = [{"property": "name", "low": row["name"].iat[0], "high": "", "unit": ""},
+               {"property": "family", "low": row["family"].iat[0], "high": "", "unit": ""}]
+    for symbol, prop in PROPERTIES.items():
+        low, high = property_values(row, symbol, units)
+        records.append({"property": f"{symbol} ({prop.name})", "low": low[0], "high": high[0],
+                        "unit": property_unit(symbol, units)})
+    for rating, meaning in RATINGS.items():
+        records.append({"property": f"{rating} ({meaning})", "low": row[rating].iat[0], "high": "", "unit": ""})
+    for text in ("note", "source", "origin"):
+        if text in row:
+            records.append({"property": text, "low": row[text].iat[0], "high": "", "unit": ""})
+    return pd.DataFrame(records)
+
+
+def _cell(value: Any) -> str:
+    if isinstance(value, float | np.floating):
+        return "n/a" if math.isnan(value) else format_number(float(value))
+    if isinstance(value, list | tuple):
+        return "; ".join(str(v) for v in value)
+    if value is None or value is pd.NA:
+        return ""
+    return str(value)
+
+
+def render(frame: pd.DataFrame, fmt: str) -> str:
+    """A frame as a terminal table, CSV, JSON or Markdown."""
+    if fmt == "csv":
+        return frame.to_csv(index=False).rstrip("\n")
+    if fmt == "json":
+        return json.dumps(_json_records(frame), indent=2, allow_nan=False)
+    cells = [[_cell(v) for v in row] for row in frame.itertuples(index=False)]
+    header = [str(c) for c in frame.columns]
+    if fmt == "md":
+        lines = ["| " + " | ".join(header) + " |", "|" + "|".join("---" for _ in header) + "|"]
+        lines += ["| " + " | ".join(c.replace("|", "\\|") for c in row) + " |" for row in cells]
+        return "\n".join(lines)
+    widths = [max(len(h), *(len(r[i]) for r in cells)) if cells else len(h) for i, h in enumerate(header)]
+    lines = ["  ".join(h.ljust(w) for h, w in zip(header, widths, strict=True)).rstrip()]
+    lines.append("  ".join("-" * w for w in widths))
+    lines += ["  ".join(c.ljust(w) for c, w in zip(row, widths, strict=True)).rstrip() for row in cells]
+    return "\n".join(lines)
+
+
+def _json_value(value: Any) -> Any:
+    if isinstance(value, float | np.floating):
+        return None if not math.isfinite(value) else float(value)
+    if isinstance(value, np.integer):
+        return int(value)
+    if value is pd.NA:
+        return None
+    return value
+
+
+def _json_records(frame: pd.DataFrame) -> list[dict[str, Any]]:
+    """Records where a column named ``name [unit]`` becomes ``{"value": .., "unit": ..}``."""
+    out = []
+    for row in frame.to_dict(orient="records"):
+        record: dict[str, Any] = {}
+        for key, value in row.items():
+            if isinstance(key, str) and key.endswith("]") and " [" in key:
+                name, unit = key[:-1].split(" [", 1)
+                record[name] = {"value": _json_value(value), "unit": unit}
+            else:
+                record[key] = _json_value(value)
+        out.append(record)
+    return out
+
+
+def render_derivation(d: Any, fmt: str) -> str:
+    """The derived index and its steps."""
+    if fmt == "json":
+        return json.dumps(
+            {
+                "function": d.case.function,
+                "load_case": d.case.title,
+                "constraint": d.constraint,
+                "objective": d.objective,
+                "free": d.geometry.free,
+                "index": d.exponents,
+                "index_text": d.index_text,
+                "index_latex": d.index_latex,
+                "steps": list(d.steps),
+                "steps_latex": list(d.steps_latex),
+            },
+            indent=2,
+        )
+    if fmt == "md":
+        lines = [f"**Merit index:** $M = {d.index_latex}$", "", *[f"{i}. {s}" for i, s in enumerate(d.steps, 1)]]
+        return "\n".join(lines)
+    if fmt == "csv":
+        return "symbol,exponent\n" + "\n".join(f"{k},{v:g}" for k, v in d.exponents.items())
+    lines = [f"{d.case.title}: minimise {d.objective}, {d.constraint} constraint, free: {d.geometry.free}", ""]
+    lines += [f"  {i}. {s}" for i, s in enumerate(d.steps, 1)]
+    lines += ["", f"Merit index (maximise): M = {d.index_text}"]
+    return "\n".join(lines)
+
+
+def index_unit(exponents: dict[str, float]) -> str:
+    """Unit of an index computed in stored units, e.g. ``GPa^0.5/(kg/m³)``."""
+    up, down = [], []
+    for s, p in exponents.items():
+        label = PROPERTIES[s].label
+        label = f"({label})" if ("/" in label or "·" in label or " " in label) else label
+        part = label if abs(p) == 1 else f"{label}^{abs(p):.3g}"
+        (up if p > 0 else down).append(part)
+    top = "·".join(up) or "1"
+    if not down:
+        return top
+    return f"{top}/" + ("·".join(down) if len(down) == 1 else "(" + "·".join(down) + ")")
+
+
+def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -> pd.DataFrame:
+    """The shortlist (and optionally the rejected classes) with units in the headers."""
+    table = selection.table if show_all else selection.shortlist
+    unit = index_unit(selection.derivations[0].exponents)
+    out = pd.DataFrame(
+        {
+            "rank": table["rank"],
+            "id": table["id"],
+            "name": table["name"],
+            "family": table["family"],
+            "status": table["status"],
+            f"index [{unit}]": table["index"],
+            f"index_low [{unit}]": table["index_low"],
+            f"index_high [{unit}]": table["index_high"],
+            "close_to_leader": table["close_to_leader"].astype(bool),
+        }
+    )
+    if selection.sized:
+        lf, mf = _LENGTH_FACTOR[units], _MASS_FACTOR[units]
+        lu, mu = LENGTH_UNIT[units], MASS_UNIT[units]
+        su, sf = _STRESS[units]
+        feasible = table["feasible"].fillna(False).astype(bool)
+        out["dimensions"] = [
+            {k: v * lf for k, v in d.items() if k != "V"} if isinstance(d, dict) else None
+            for d in table["dimensions"]
+        ]
+        out[f"mass [{mu}]"] = table["mass"].where(feasible) * mf
+        out["cost [USD]"] = table["cost"].where(feasible)
+        out[f"co2 [{mu} CO2e]"] = table["co2"].where(feasible) * mf
+        out[f"deflection [{lu}]"] = table["deflection"].where(feasible) * lf
+        if "twist" in table and table["twist"].notna().any():
+            out[f"twist [{ANGLE_UNIT}]"] = np.degrees(table["twist"].where(feasible))
+        out[f"stress [{su}]"] = table["stress"].where(feasible) * sf
+        out["utilisation"] = table["utilisation"]
+        out["governing"] = table["governing"]
+        out["warnings"] = table["size_warnings"]
+    out["reasons"] = table["reasons"]
+    return out.reset_index(drop=True)
+
+
+def render_selection(selection: Any, fmt: str, units: str = "si", top: int | None = None,
+                     show_all: bool = False) -> str:
+    """The shortlist in the chosen format; the table form adds the derivation and the caution."""
+    frame = selection_frame(selection, units, show_all)
+    if top:
+        frame = frame[(frame["rank"].isna()) | (frame["rank"] <= top)] if show_all else frame.head(top)
+    if fmt == "json":
+        records = _json_records(frame)
+        lu = LENGTH_UNIT[units]
+        for r in records:
+            if r.get("dimensions"):
+                r["dimensions"] = {k: {"value": v, "unit": lu} for k, v in r["dimensions"].items()}
+            if "rank" in r and r["rank"] is not None:
+                r["rank"] = int(r["rank"])
+        return json.dumps(records, indent=2, allow_nan=False, default=_json_value)
+    if fmt == "csv":
+        flat = frame.copy()
+        if "dimensions" in flat:
+            lu = LENGTH_UNIT[units]
+            names = sorted({k for d in flat["dimensions"] if isinstance(d, dict) for k in d})
+            for k in names:
+                flat.insert(flat.columns.get_loc("dimensions"), f"{k} [{lu}]",
+                            [d.get(k) if isinstance(d, dict) else None for d in flat["dimensions"]])
+            flat = flat.drop(columns="dimensions")
+            flat["utilisation"] = [_util_text(u) for u in flat["utilisation"]]
+            flat["warnings"] = ["; ".join(w) if isinstance(w, list) else "" for w in flat["warnings"]]
+        flat["reasons"] = ["; ".join(r) for r in flat["reasons"]]
+        return flat.to_csv(index=False).rstrip("\n")
+    shown = _compact(frame, units)
+    body = render(shown, "md" if fmt == "md" else "table")
+    d = selection.derivations[0]
+    head = [f"{selection.spec.title}: {d.case.title}; minimise {d.objective}",
+            f"merit index (maximise): M = {d.index_text}"]
+    head += [f"also: {x.constraint} index M = {x.index_text}" for x in selection.derivations[1:]]
+    head += [f"note: {n}" for n in selection.notes]
+    ranked = "ranked by " + (f"{selection.ranked_by} of the sized part" if selection.sized else "merit index")
+    foot = [f"{len(selection.shortlist)} candidates ({ranked}); {len(selection.rejected)} rejected"
+            + ("" if show_all else " (--all lists them with reasons)"),
+            "* index range overlaps the leader's: too close to call", "", f"CAUTION: {selection.caution}"]
+    return "\n".join([*head, "", body, "", *foot])
+
+
+def _util_text(u: Any) -> str:
+    if not isinstance(u, dict):
+        return ""
+    return ", ".join(f"{k} {v:.2f}" for k, v in u.items())
+
+
+def _compact(frame: pd.DataFrame, units: str) -> pd.DataFrame:
+    """Fewer, narrower columns for people."""
+    index_col = next(c for c in frame.columns if c.startswith("index ["))
+    out = pd.DataFrame({
+        "rank": [("" if pd.isna(r) else f"{int(r)}{'*' if c else ''}")
+                 for r, c in zip(frame["rank"], frame["close_to_leader"], strict=True)],
+        "class": frame["name"],
+        "family": frame["family"],
+        "status": frame["status"],
+        index_col: frame[index_col],
+    })
+    if "dimensions" in frame:
+        lu = LENGTH_UNIT[units]
+        out[f"size [{lu}]"] = [
+            " ".join(f"{k}={format_number(v)}" for k, v in d.items()) if isinstance(d, dict) else "–"
+            for d in frame["dimensions"]
+        ]
+        for col in frame.columns:
+            if col.startswith(("mass [", "cost [", "co2 [")):
+                out[col] = frame[col]
+        out["governing"] = frame["governing"].fillna("–")
+        out["utilisation"] = [_util_text(u) for u in frame["utilisation"]]
+        notes = [("; ".join(w) if isinstance(w, list) else "") for w in frame["warnings"]]
+        reasons = ["; ".join(r) for r in frame["reasons"]]
+        out["notes"] = ["; ".join(x for x in pair if x) for pair in zip(notes, reasons, strict=True)]
+    else:
+        out["reasons"] = ["; ".join(r) for r in frame["reasons"]]
+    return out
