@@ -173,6 +173,21 @@ def demo(out_dir) -> None:
         click.echo(f"wrote {path}")
 
 
+@cli.command()
+@click.argument("shape")
+@click.argument("dims", nargs=-1)
+@format_option
+@units_option
+def section(shape, dims, fmt, units) -> None:
+    """Properties of a cross-section: SHAPE DIM=VALUE ... (e.g. i-section b=100mm h=200mm tf=10mm tw=6mm)."""
+    from selector import tables
+    from selector.mechanics.sections import build_section
+    from selector.spec import parse_dimension_args
+
+    section = build_section(shape, parse_dimension_args(shape, dims))
+    click.echo(tables.render_section(section, fmt or "table", units or "si"))
+
+
 def main() -> None:
     """Entry point: turn user-input errors into one clear line and exit status 2."""
     from selector.errors import SelectorError

@@ -21,6 +21,8 @@ from selector.units import format_number
 PASSES, PARTLY, REJECTED = "passes", "partly", "rejected"
 _LIMIT = re.compile(r"^\s*(>=|<=|>|<|≥|≤)\s*(.+?)\s*$")
 _OPS = {">": ">=", "≥": ">=", "<": "<=", "≤": "<="}
+TOLERANCE = 1e-9
+"""Relative slack on a limit, so unit round-off (212 °F → 100.00000000000006 °C) rejects nothing."""
 
 
 @dataclass(frozen=True)
@@ -125,10 +127,13 @@ def apply_screens(table: pd.DataFrame, screens: Screens) -> pd.DataFrame:
                 f"{format_number(lo[i])}–{format_number(hi[i])} {u}"
             )
         missing = np.isnan(low) | np.isnan(high)
+        slack = TOLERANCE * max(abs(limit.value), 1.0)
         if limit.op == ">=":
-            fail, part = high < limit.value, (low < limit.value) & (high >= limit.value)
+            v = limit.value - slack
+            fail, part = high < v, (low < v) & (high >= v)
         else:
-            fail, part = low > limit.value, (high > limit.value) & (low <= limit.value)
+            v = limit.value + slack
+            fail, part = low > v, (high > v) & (low <= v)
         fail &= ~missing
         part &= ~missing
         rejected |= fail | missing

@@ -47,7 +47,7 @@ FREE_DIMENSION = {"depth": "h", "width": "b", "thickness": "h", "wall": "t"}
 
 def section_quantities(section: sec.Section) -> dict[str, float]:
     """The section quantities the load cases use: A, I, Z, J, Zt [SI]."""
-    return {"A": section.area, "I": section.Ixx, "Z": section.Zx, "J": section.J, "Zt": section.Zt}
+    return {"A": section.A, "I": section.Ixx, "Z": section.Zx, "J": section.J, "Zt": section.Zt}
 
 
 def shape_constants(shape: str, dims: Mapping[str, float]) -> dict[str, float]:
@@ -139,7 +139,7 @@ def _dims_for(design: Design, x: float, fn: str) -> dict[str, float]:
     if fn == "spring":
         return {"V": x}
     if design.free == "scale":
-        area = build(design.shape, ref).area
+        area = build(design.shape, ref).A
         factor = math.sqrt(x / area)
         return {k: v * factor for k, v in ref.items()}
     ref[FREE_DIMENSION[design.free]] = x

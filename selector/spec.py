@@ -218,3 +218,18 @@ def load_spec(path: str | Path) -> Spec:
     except tomllib.TOMLDecodeError as exc:
         raise InputError(str(file), f"is not valid TOML: {exc}", "TOML as in examples/") from None
     return spec_from_dict(data, source=str(file))
+
+
+def parse_dimension_args(shape: str, args: tuple[str, ...] | list[str]) -> dict[str, float]:
+    """Parse ``("b=100mm", "h=200 mm")`` into SI values (moduli such as E_face in Pa)."""
+    from selector.units import magnitude_in
+
+    dims: dict[str, float] = {}
+    for arg in args:
+        name, sep, text = arg.partition("=")
+        if not sep or not name.strip() or not text.strip():
+            raise InputError(f"section {shape}", f"cannot read {arg!r}", "NAME=VALUE with a unit, e.g. t=2mm")
+        name = name.strip()
+        unit = "Pa" if name.startswith("E_") else "m"
+        dims[name] = magnitude_in(text.strip(), unit, f"section {shape}: {name}")
+    return dims

@@ -143,5 +143,6 @@ def format_number(value: float, digits: int = 3) -> str:
     mag = math.floor(math.log10(abs(value)))
     if -3 <= mag < 6:
         decimals = max(digits - 1 - mag, 0)
-        return f"{value:.{decimals}f}"
+        text = f"{round(value, decimals):.{decimals}f}"
+        return text.rstrip("0").rstrip(".") if "." in text else text
     return f"{value:.{digits - 1}e}"
