@@ -1,0 +1,158 @@
+"""The command line: exit codes, output shapes and clean errors."""
+
+from __future__ import annotations
+
+import json
+import subprocess
+import sys
+from pathlib import Path
+
+import pytest
+from click.testing import CliRunner
+
+from selector.cli import cli
+
+EXAMPLES = Path(__file__).parents[1] / "examples"
+
+
+@pytest.fixture
+def run():
+    runner = CliRunner()
+
+    def invoke(*args: str):
+        return runner.invoke(cli, list(args), catch_exceptions=False)
+
+    return invoke
+
+
+def _main(*args: str, cwd: Path | None = None) -> subprocess.CompletedProcess:
+    """Run the real entry point (as a user would), capturing its streams."""
+    return subprocess.run(
+        [sys.executable, "-m", "selector", *args], capture_output=True, text=True, cwd=cwd, check=False
+    )
+
+
+def test_help_does_not_import_heavy_modules():
+    code = (
+        "import sys; sys.argv = ['selector', '--help']\n"
+        "from selector.cli import main\n"
+        "try:\n    main()\nexcept SystemExit:\n    pass\n"
+        "heavy = [m for m in ('pandas', 'plotly', 'pint', 'numpy') if m in sys.modules]\n"
+        "assert not heavy, heavy\n"
+    )
+    result = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=False)
+    assert result.returncode == 0, result.stderr
+
+
+def test_version(run):
+    result = run("--version")
+    assert result.exit_code == 0
+    assert "selector, version" in result.output
+
+
+def test_materials_list_csv_has_every_class(run):
+    result = run("materials", "list", "--format", "csv")
+    assert result.exit_code == 0
+    lines = result.output.strip().splitlines()
+    assert len(lines) - 1 >= 80
+    header = lines[0].split(",")
+    assert "E_low [GPa]" in header and "rho_high [kg/m³]" in header
+
+
+def test_materials_list_us_units(run):
+    result = run("materials", "list", "--family", "metal", "--units", "us", "--format", "json")
+    records = json.loads(result.output)
+    assert records and all(r["family"] == "metal" for r in records)
+    assert records[0]["E_low"]["unit"] == "Msi"
+
+
+def test_materials_show_unknown_id_is_one_line():
+    result = _main("materials", "show", "alumminium")
+    assert result.returncode == 2
+    assert result.stderr.startswith("error: materials show: no class with id 'alumminium'")
+    assert "Traceback" not in result.stderr
+
+
+def test_derive_json_index(run):
+    result = run("derive", "beam", "--objective", "mass", "--constraint", "stiffness", "--free", "scale",
+                 "--format", "json")
+    assert result.exit_code == 0
+    assert json.loads(result.output)["index"] == {"E": 0.5, "rho": -1.0}
+
+
+def test_derive_table_shows_steps(run):
+    result = run("derive", "panel", "--free", "thickness")
+    assert "M = E^(1/3)/ρ" in result.output
+    assert "Solve for the free variable" in result.output
+
+
+@pytest.mark.parametrize("example", sorted(p.name for p in EXAMPLES.glob("*.toml")))
+def test_rank_every_example(run, example):
+    result = run("rank", str(EXAMPLES / example), "--format", "json")
+    assert result.exit_code == 0, result.output
+    records = json.loads(result.output)
+    assert records, "empty shortlist"
+    first = records[0]
+    for key in ("id", "name", "family", "rank", "status", "reasons", "index", "index_low", "index_high"):
+        assert key in first
+    assert set(first["index"]) == {"value", "unit"}
+    assert first["rank"] == 1
+    if "mass" in first:
+        assert first["mass"]["unit"] in ("kg", "lb")
+        assert first["governing"] in first["utilisation"]
+        assert all(set(v) == {"value", "unit"} for v in first["dimensions"].values())
+
+
+def test_rank_table_prints_caution(run):
+    result = run("rank", str(EXAMPLES / "camera-dolly-boom.toml"), "--all")
+    assert result.exit_code == 0
+    assert "CAUTION: Preliminary selection only" in result.output
+    assert "rejected" in result.output
+
+
+def test_rank_bad_spec_is_one_line(tmp_path):
+    spec = tmp_path / "bad.toml"
+    spec.write_text('[part]\nfunction = "beam"\nlenght = "1 m"\n', encoding="utf-8")
+    result = _main("rank", str(spec))
+    assert result.returncode == 2
+    assert result.stderr.strip().count("\n") == 0
+    assert "part.lenght: unknown key 'lenght'; did you mean 'length'?" in result.stderr
+
+
+def test_rank_refuses_to_overwrite_its_spec(tmp_path):
+    spec = tmp_path / "boom.json"
+    spec.write_text((EXAMPLES / "camera-dolly-boom.toml").read_text(encoding="utf-8"), encoding="utf-8")
+    before = spec.read_bytes()
+    result = _main("rank", str(spec), "-o", str(spec))
+    assert result.returncode == 2
+    assert "refusing to write over an input file" in result.stderr
+    assert spec.read_bytes() == before
+
+
+def test_rank_writes_csv(tmp_path, run):
+    out = tmp_path / "shortlist.csv"
+    result = run("rank", str(EXAMPLES / "greenhouse-tie-rod.toml"), "-o", str(out))
+    assert result.exit_code == 0
+    assert out.read_text(encoding="utf-8").startswith("rank,id,name,family,status,index [")
+
+
+def test_section_json(run):
+    result = run("section", "i-section", "b=100mm", "h=200mm", "tf=10mm", "tw=6mm", "--format", "json")
+    data = json.loads(result.output)
+    # A = 2·100·10 + 180·6 = 3080 mm² (worked by hand)
+    assert data["area"] == {"value": pytest.approx(3080.0), "unit": "mm^2"}
+    for key in ("centroid", "Ixx", "Iyy", "Zx_top", "Zx_bottom", "J", "shape_factor_bending"):
+        assert "unit" in data[key]
+
+
+def test_section_bad_dimension_is_one_line():
+    result = _main("section", "tube", "d=40mm", "t=30 furlongs")
+    assert result.returncode == 2
+    assert result.stderr.startswith("error: section tube: t:")
+
+
+def test_demo_writes_files(tmp_path):
+    result = _main("demo", "--out", str(tmp_path / "demo"))
+    assert result.returncode == 0, result.stderr
+    assert "wrote" in result.stdout
+    assert (tmp_path / "demo" / "shortlist.csv").exists()
