@@ -26,6 +26,7 @@ def run_spec(
     files: Sequence[str] = (),
     no_builtin: bool = False,
     conservative: bool = False,
+    index: str | None = None,
     protect: Sequence[str | Path] = (),
     output: str | Path | None = None,
 ):
@@ -41,7 +42,7 @@ def run_spec(
     check_output(output, spec_files)
     builtin = spec.materials.builtin and not no_builtin
     table = load_materials([*spec_files, *files], builtin=builtin)
-    return select(spec, table, conservative=conservative)
+    return select(spec, table, conservative=conservative, index=index)
 
 
 def run_demo(out_dir: Path):

@@ -138,17 +138,18 @@ def derive(function, objective, constraint, free, support, load, fmt) -> None:
 @click.option("--materials", "files", multiple=True, type=click.Path(), help="Add a materials file (repeatable).")
 @click.option("--no-builtin", is_flag=True, help="Rank the given materials files alone.")
 @click.option("--conservative", is_flag=True, help="Rank by the unfavourable end of each range.")
+@click.option("--index", "expression", default=None, help='Rank by a typed index, e.g. "E^0.5/rho".')
 @click.option("--top", type=click.IntRange(min=1), default=None, help="Show the best N only.")
 @click.option("--all", "show_all", is_flag=True, help="Also list the rejected classes with reasons.")
 @format_option
 @units_option
 @click.option("-o", "--output", type=click.Path(), default=None, help="Write to FILE (format from extension).")
-def rank(spec, files, no_builtin, conservative, top, show_all, fmt, units, output) -> None:
+def rank(spec, files, no_builtin, conservative, expression, top, show_all, fmt, units, output) -> None:
     """Screen, derive, size and rank the classes for a SPEC file."""
     from selector import tables
     from selector.api import run_spec
 
-    selection = run_spec(spec, files, no_builtin, conservative, protect=[spec, *files], output=output)
+    selection = run_spec(spec, files, no_builtin, conservative, expression, protect=[spec, *files], output=output)
     fmt = fmt or tables.format_for(output)
     units = units or selection.spec.units
     if output and fmt == "xlsx":

@@ -31,8 +31,15 @@ OBJECTIVE_WORDS = {"mass": "mass m", "cost": "cost C", "co2": "embodied CO2", "v
 
 SYMBOLS_TEXT = {"rho": "ρ", "sigma_y": "σ_y", "sigma_c": "σ_c", "delta": "δ", "theta": "θ", "price": "C_m"}
 SYMBOLS_LATEX = {
-    "rho": r"\rho", "sigma_y": r"\sigma_y", "sigma_c": r"\sigma_c", "delta": r"\delta",
-    "theta": r"\theta", "price": "C_m", "co2": r"\mathrm{CO_2}", "k_I": "k_I", "k_Z": "k_Z",
+    "rho": r"\rho",
+    "sigma_y": r"\sigma_y",
+    "sigma_c": r"\sigma_c",
+    "delta": r"\delta",
+    "theta": r"\theta",
+    "price": "C_m",
+    "co2": r"\mathrm{CO_2}",
+    "k_I": "k_I",
+    "k_Z": "k_Z",
 }
 PROPERTY_SYMBOLS = frozenset(PROPERTIES)
 
@@ -57,7 +64,9 @@ class Geometry:
 def geometry(case: LoadCase, free: str) -> Geometry:
     """The section model for a load case and free variable (shape constants stay symbolic)."""
     if free not in FREE_VARIABLES:
-        raise InputError("section.free", f"{free!r} is not a free variable", did_you_mean(free, FREE_VARIABLES))
+        raise InputError(
+            "section.free", f"{free!r} is not a free variable", did_you_mean(free, FREE_VARIABLES)
+        )
     if free == "none":
         raise InputError(
             "section.free", "'none' fixes every dimension, so there is nothing to derive", "scale, depth, ..."
@@ -71,7 +80,9 @@ def geometry(case: LoadCase, free: str) -> Geometry:
     if case.function == "spring":
         return Geometry(free, "V", {}, "the volume V of spring material is free")
     if case.function in ("cylinder", "sphere", "plate"):
-        return Geometry(free, "t", {}, "the wall or plate thickness t is free; the other dimensions are fixed")
+        return Geometry(
+            free, "t", {}, "the wall or plate thickness t is free; the other dimensions are fixed"
+        )
     if free == "scale":
         return Geometry(
             free,
@@ -90,8 +101,13 @@ def geometry(case: LoadCase, free: str) -> Geometry:
         return Geometry(
             free,
             sym,
-            {"A": M.of(1, b=1, **{sym: 1}), "I": M.of(1 / 12, b=1, **{sym: 3}), "Z": M.of(1 / 6, b=1, **{sym: 2})},
-            f"rectangular section of fixed width b, free {free} {sym}: A = b·{sym}, I = b·{sym}³/12, Z = b·{sym}²/6",
+            {
+                "A": M.of(1, b=1, **{sym: 1}),
+                "I": M.of(1 / 12, b=1, **{sym: 3}),
+                "Z": M.of(1 / 6, b=1, **{sym: 2}),
+            },
+            f"rectangular section of fixed width b, free {free} {sym}: "
+            f"A = b·{sym}, I = b·{sym}³/12, Z = b·{sym}²/6",
         )
     if free == "width":
         return Geometry(
@@ -183,7 +199,9 @@ def derive(
 def derive_for_case(case: LoadCase, constraint: str, objective: str, free: str) -> Derivation:
     """Derive the merit index for ``constraint`` of an already chosen load case."""
     if objective not in OBJECTIVES:
-        raise InputError("objective.minimize", f"{objective!r} is not an objective", did_you_mean(objective, OBJECTIVES))
+        raise InputError(
+            "objective.minimize", f"{objective!r} is not an objective", did_you_mean(objective, OBJECTIVES)
+        )
     if constraint not in case.utilisation:
         raise InputError(
             "constraint.type",
@@ -214,7 +232,8 @@ def derive_for_case(case: LoadCase, constraint: str, objective: str, free: str) 
         f"Solve for the free variable: {x} = {fmt(solution)}",
         f"Substitute into the objective: {word} = [{fmt(rest)}] · [{fmt(material)}]",
         f"The loads and geometry fix the first factor; the material fixes the second. Minimising "
-        f"{fmt(material)} means maximising the merit index M = {format_monomial(index, SYMBOLS_TEXT, coef=False)}",
+        f"{fmt(material)} means maximising the merit index "
+        f"M = {format_monomial(index, SYMBOLS_TEXT, coef=False)}",
     )
     latex = (
         rf"\text{{objective: }} {tex(target)}",

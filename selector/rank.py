@@ -65,7 +65,9 @@ def rank_by_index(
         reasons = out["reasons"].copy()
         for i in np.flatnonzero(missing):
             row = out.iloc[i]
-            absent = [s for s in needs if np.isnan(row[PROPERTIES[s].low]) or np.isnan(row[PROPERTIES[s].high])]
+            absent = [
+                s for s in needs if np.isnan(row[PROPERTIES[s].low]) or np.isnan(row[PROPERTIES[s].high])
+            ]
             reasons.iat[i] = [*reasons.iat[i], f"no data for {', '.join(absent) or 'the index'}"]
         out["reasons"] = reasons
         out.loc[missing, "status"] = REJECTED

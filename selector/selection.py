@@ -5,6 +5,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, field
 
+import numpy as np
 import pandas as pd
 
 from selector.derive import OBJECTIVE_UNITS, Derivation, derive_for_case
@@ -17,10 +18,19 @@ from selector.sizing import DEFAULT_DIMS, Design, missing_inputs, size_parts
 from selector.spec import DIMENSION_FIELDS, QUANTITY_FIELDS, Spec
 
 SYMBOL_OF_FIELD = {
-    "length": "L", "force": "F", "torque": "T", "pressure": "p", "energy": "U", "width": "b", "radius": "r",
+    "length": "L",
+    "force": "F",
+    "torque": "T",
+    "pressure": "p",
+    "energy": "U",
+    "width": "b",
+    "radius": "r",
 }
 FIELD_OF_SYMBOL = {v: k for k, v in SYMBOL_OF_FIELD.items()} | {
-    "delta": "max_deflection", "theta": "max_twist", "d": "section.d", "h": "section.h",
+    "delta": "max_deflection",
+    "theta": "max_twist",
+    "d": "section.d",
+    "h": "section.h",
 }
 CAUTION = (
     "Preliminary selection only: use certified design-allowable data for the chosen grade, "
@@ -49,7 +59,22 @@ class Selection:
     ranked_by: str
     objective_unit: str = ""
     notes: tuple[str, ...] = field(default=())
+    expression: str | None = None
     caution: str = CAUTION
+
+    @property
+    def index_exponents(self) -> dict[str, float] | None:
+        """The ranking index as {symbol: exponent}, or None for a typed index that is no monomial."""
+        if self.expression is None:
+            return self.derivations[0].exponents
+        from selector.expressions import parse
+
+        mono = parse(self.expression).monomial()
+        return None if mono is None else mono[1]
+
+    @property
+    def index_text(self) -> str:
+        return self.expression if self.expression is not None else self.derivations[0].index_text
 
     @property
     def sized(self) -> bool:
@@ -100,14 +125,69 @@ def design_of(spec: Spec, shape: str) -> Design:
     return Design(values, limits, shape, dims, spec.section.free)
 
 
-def select(spec: Spec, materials: pd.DataFrame | None = None, conservative: bool = False) -> Selection:
-    """Run the whole pipeline for a spec over a materials table (the built-in one by default)."""
+SHAPE_CONSTANT = {"k_I": ("bending_stiffness", 12.0), "k_Z": ("bending_strength", 6.0)}
+"""Shape constant → (shape-limit mode, c) with k = φ/c: I = (φ_B/12)·A², Z = (φ_f/6)·A^1.5."""
+
+
+def index_with_shape(table: pd.DataFrame, derivation: Derivation) -> np.ndarray:
+    """The merit index with each family's largest practical shape factor built in.
+
+    For a light stiff beam this is (φ_max·E)^(1/2)/ρ; NaN where the index does not depend
+    on a bending shape factor (ties, vessels, springs, one dimension free).
+    """
+    from selector.mechanics.shape_limits import max_shape_factor
+
+    powers = derivation.objective_value.exponents
+    material = derivation.material_factor.exponents
+    scale = abs(material.get("rho", 0)) or max((abs(v) for v in material.values()), default=1)
+    used = [k for k in SHAPE_CONSTANT if powers.get(k)]
+    if not used:
+        return np.full(len(table), np.nan)
+    factor = np.ones(len(table))
+    for k in used:
+        mode, c = SHAPE_CONSTANT[k]
+        phi = table["family"].map(lambda f, mode=mode: max_shape_factor(f, mode)).to_numpy(dtype=float)
+        factor *= (phi / c) ** (-float(powers[k]) / float(scale))
+    return table["index"].to_numpy(dtype=float) * factor
+
+
+def expression_index(
+    table: pd.DataFrame, text: str
+) -> tuple[np.ndarray, np.ndarray, np.ndarray, tuple[str, ...]]:
+    """(low, high, typical, symbols) of a typed index expression over every class (stored units)."""
+    from selector.expressions import parse
+    from selector.rank import property_arrays
+
+    expr = parse(text)
+    symbols = sorted(expr.symbols)
+    low_v, high_v, mid_v = property_arrays(table, symbols)
+    low, high = expr.interval(low_v, high_v)
+    n = len(table)
+    typical = np.broadcast_to(expr.evaluate(mid_v), n).astype(float)
+    return (
+        np.broadcast_to(low, n).astype(float),
+        np.broadcast_to(high, n).astype(float),
+        typical,
+        tuple(symbols),
+    )
+
+
+def select(
+    spec: Spec, materials: pd.DataFrame | None = None, conservative: bool = False, index: str | None = None
+) -> Selection:
+    """Run the whole pipeline for a spec over a materials table (the built-in one by default).
+
+    ``index`` (or the spec's ``index``) replaces the derived merit index for ranking by index.
+    """
     if materials is None:
         from selector.materials import load_materials
 
         materials = load_materials(spec.materials.files, builtin=spec.materials.builtin)
-    if not spec.constraint:
-        raise InputError("spec: constraint", "the spec has no [[constraint]]", "at least one constraint table")
+    expression = index if index is not None else spec.index
+    if not spec.constraint and expression is None:
+        raise InputError(
+            "spec: constraint", "the spec has no [[constraint]] and no index", "at least one constraint table"
+        )
     case = load_case(spec.part.function, spec.part.support, spec.part.load)
     seen: set[str] = set()
     derivations = []
@@ -118,30 +198,50 @@ def select(spec: Spec, materials: pd.DataFrame | None = None, conservative: bool
         derivations.append(derive_for_case(case, c.type, spec.objective.minimize, spec.section.free))
     screens = parse_screens(spec.screen)
     screened = apply_screens(materials.reset_index(drop=True), screens)
+    if expression is not None:
+        low, high, typ, needs = expression_index(screened, expression)
+        table = rank_by_index(screened, low, high, typ, conservative, needs=needs)
+        if not derivations:
+            notes = [f"ranked by the typed index {expression}"]
+            return Selection(spec, screens, (), table, "index", notes=tuple(notes), expression=expression)
     first = derivations[0]
-    low, high, typ = monomial_index(screened, first.exponents)
-    table = rank_by_index(screened, low, high, typ, conservative, needs=tuple(first.exponents))
+    if expression is None:
+        low, high, typ = monomial_index(screened, first.exponents)
+        table = rank_by_index(screened, low, high, typ, conservative, needs=tuple(first.exponents))
     for d in derivations[1:]:
         _, _, extra = monomial_index(table, d.exponents)
         table[f"index_{d.constraint}"] = extra
+    if expression is None:
+        table["index_with_shape"] = index_with_shape(table, first)
     notes = list(case.notes)
     shape = spec.section.shape
     if shape == "generic" and spec.section.free == "scale":
-        notes.append("section: a generic solid square at fixed proportions (set [section] shape to size a real one)")
+        notes.append(
+            "section: a generic solid square at fixed proportions (set [section] shape to size a real one)"
+        )
     design = design_of(spec, shape)
     missing = missing_inputs(derivations, design)
     if missing:
         names = ", ".join(FIELD_OF_SYMBOL.get(s, s) for s in missing)
         notes.append(f"ranked by merit index; to size parts the spec also needs: {names}")
-        return Selection(spec, screens, tuple(derivations), table, "index", notes=tuple(notes))
+        return Selection(
+            spec, screens, tuple(derivations), table, "index", notes=tuple(notes), expression=expression
+        )
     sized = size_parts(table, derivations, design)
     table = pd.concat([table, sized], axis=1)
     objective = spec.objective.minimize
     table["objective"] = table[objective].where(table["feasible"].fillna(False).astype(bool), math.inf)
     table = rank_by_value(table, "objective", "objective_low", "objective_high")
     return Selection(
-        spec, screens, tuple(derivations), table, objective, OBJECTIVE_UNITS[objective], notes=tuple(notes)
+        spec,
+        screens,
+        tuple(derivations),
+        table,
+        objective,
+        OBJECTIVE_UNITS[objective],
+        tuple(notes),
+        expression,
     )
 
 
-__all__ = ["CAUTION", "PROPERTIES", "DIMENSION_FIELDS", "Selection", "design_of", "select"]
+__all__ = ["CAUTION", "DIMENSION_FIELDS", "PROPERTIES", "Selection", "design_of", "select"]

@@ -174,6 +174,7 @@ def _one_part(row, x, derivations, design, mid, i, constants) -> dict[str, objec
     volume = float(case.volume.evaluate(values))
     mass = volume * props["rho"]
     responses = {name: float(m.evaluate(values)) for name, m in case.responses.items() if m.symbols <= set(values)}
+    warnings += _shape_warnings(design, dims, fn, str(row["family"]))
     wall = dims.get("t") or dims.get("tw")
     if wall is not None and wall < MIN_PRACTICAL_WALL:
         warnings.append(f"wall {wall * 1e3:.2g} mm is thinner than a practical minimum of 0.5 mm")
@@ -194,6 +195,19 @@ def _one_part(row, x, derivations, design, mid, i, constants) -> dict[str, objec
         "governing": governing,
         "size_warnings": warnings,
     }
+
+
+def _shape_warnings(design: Design, dims: dict[str, float], fn: str, family: str) -> list[str]:
+    """Warn where the section is more efficient than the family can practically be made."""
+    if fn in ("cylinder", "sphere", "plate", "spring", "tie") or design.shape in ("generic", "rectangle", "round"):
+        return []
+    from selector.mechanics.shape_limits import max_shape_factor
+
+    section = build(design.shape, dims)
+    phi, limit = section.phi_bending_stiffness, max_shape_factor(family, "bending_stiffness")
+    if phi > limit:
+        return [f"shape factor {phi:.3g} exceeds the practical limit of about {limit:g} for {family}"]
+    return []
 
 
 def _approximate(design: Design, fn: str) -> bool:
@@ -249,3 +263,40 @@ def _refine(design, dims, derivations, props, fn):
     out = dict(dims)
     out[name] = hi
     return out, _geometry_values(design, out, fn)
+
+
+def design_constants(derivations: list[Derivation], design: Design) -> dict[str, float]:
+    """Shape constants k_I, k_Z, k_J, k_Zt when the scale is free (none otherwise), as in ``size_parts``."""
+    if design.free == "scale" and derivations[0].case.function not in ("spring",):
+        return shape_constants(design.shape, dict(design.dims))
+    return {}
+
+
+def objective_samples(
+    derivations: list[Derivation], design: Design, properties: Mapping[str, np.ndarray]
+) -> np.ndarray:
+    """The closed-form objective of the governing constraint for sampled properties.
+
+    Each derivation's ``objective_value`` monomial (mass [kg], cost [USD], CO2
+    [kg CO2e] or volume [m³] of the part that just meets that constraint) is
+    evaluated with the spec's loads, limits and section; the largest value over
+    the constraints is the one that governs.
+
+    Args:
+        derivations: one per constraint of the spec.
+        design: loads, limits and section in SI (from ``selection.design_of``).
+        properties: property symbol → values in SI units; arrays of any one
+            broadcastable shape (e.g. draws × classes).
+
+    Returns:
+        The governing objective, broadcast to the shape of the property arrays.
+    """
+    if not derivations:
+        raise ValueError("objective_samples needs at least one derivation")
+    constants = design_constants(derivations, design)
+    result: np.ndarray | None = None
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        for d in derivations:
+            value = np.asarray(d.objective_value.evaluate(dict(properties) | _inputs(d, design, constants)))
+            result = value if result is None else np.fmax(result, value)
+    return np.asarray(result)

@@ -121,6 +121,7 @@ class Spec(_Strict):
 
     title: str = "Untitled part"
     notes: str = ""
+    index: str | None = None
     units: str = "si"
     part: Part
     section: SectionSpec = Field(default_factory=SectionSpec)
@@ -150,7 +151,7 @@ class Spec(_Strict):
                 if not isinstance(limit, list) or not all(isinstance(i, str) for i in limit):
                     raise ValueError(f"exclude = {limit!r}; expected a list of class ids")
             elif not isinstance(limit, str):
-                raise ValueError(f"screen {key} = {limit!r}; expected text such as \">= 60 degC\"")
+                raise ValueError(f'screen {key} = {limit!r}; expected text such as ">= 60 degC"')
         return value
 
 
@@ -195,7 +196,9 @@ def spec_from_dict(data: dict[str, Any], source: str = "spec") -> Spec:
                 f"{source}: {path}", f"unknown key {key!r}{more}", did_you_mean(key, _fields_of(Spec, loc))
             ) from None
         if first["type"] == "missing":
-            raise InputError(f"{source}: {path}", f"required field is missing{more}", "see examples/") from None
+            raise InputError(
+                f"{source}: {path}", f"required field is missing{more}", "see examples/"
+            ) from None
         message = first["msg"].removeprefix("Value error, ")
         what, _, expected = message.partition("; ")
         value = first.get("input")
@@ -212,7 +215,9 @@ def load_spec(path: str | Path) -> Spec:
     except FileNotFoundError:
         raise InputError(str(file), "no such file", "the path of a spec file (TOML)") from None
     except (OSError, UnicodeDecodeError) as exc:
-        raise InputError(str(file), f"cannot be read ({exc.__class__.__name__})", "a UTF-8 TOML file") from None
+        raise InputError(
+            str(file), f"cannot be read ({exc.__class__.__name__})", "a UTF-8 TOML file"
+        ) from None
     try:
         data = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:

@@ -34,7 +34,9 @@ def format_for(path: str | None) -> str:
     ext = path.rsplit(".", 1)[-1].lower() if "." in path else ""
     formats = {"csv": "csv", "json": "json", "md": "md", "xlsx": "xlsx", "txt": "table"}
     if ext not in formats:
-        raise InputError(f"-o {path}", f"unknown file extension {ext!r}", "one of .csv, .json, .md, .xlsx, .txt")
+        raise InputError(
+            f"-o {path}", f"unknown file extension {ext!r}", "one of .csv, .json, .md, .xlsx, .txt"
+        )
     return formats[ext]
 
 
@@ -73,7 +75,10 @@ def materials_frame(
         rows = rows[rows["family"].isin(families)]
     if search:
         text = search.lower()
-        rows = rows[rows["id"].str.lower().str.contains(text, regex=False) | rows["name"].str.lower().str.contains(text, regex=False)]
+        rows = rows[
+            rows["id"].str.lower().str.contains(text, regex=False)
+            | rows["name"].str.lower().str.contains(text, regex=False)
+        ]
     out = rows[["id", "name", "family"]].copy()
     for symbol in PROPERTIES:
         unit = property_unit(symbol, units)
@@ -92,16 +97,28 @@ def class_frame(table: pd.DataFrame, class_id: str, units: str = "si") -> pd.Dat
     if match.empty:
         from selector.suggest import did_you_mean
 
-        raise InputError("materials show", f"no class with id {class_id!r}", did_you_mean(class_id, table["id"]))
+        raise InputError(
+            "materials show", f"no class with id {class_id!r}", did_you_mean(class_id, table["id"])
+        )
     row = match.iloc[[0]]
-    records = [{"property": "name", "low": row["name"].iat[0], "high": "", "unit": ""},
-               {"property": "family", "low": row["family"].iat[0], "high": "", "unit": ""}]
+    records = [
+        {"property": "name", "low": row["name"].iat[0], "high": "", "unit": ""},
+        {"property": "family", "low": row["family"].iat[0], "high": "", "unit": ""},
+    ]
     for symbol, prop in PROPERTIES.items():
         low, high = property_values(row, symbol, units)
-        records.append({"property": f"{symbol} ({prop.name})", "low": low[0], "high": high[0],
-                        "unit": property_unit(symbol, units)})
+        records.append(
+            {
+                "property": f"{symbol} ({prop.name})",
+                "low": low[0],
+                "high": high[0],
+                "unit": property_unit(symbol, units),
+            }
+        )
     for rating, meaning in RATINGS.items():
-        records.append({"property": f"{rating} ({meaning})", "low": row[rating].iat[0], "high": "", "unit": ""})
+        records.append(
+            {"property": f"{rating} ({meaning})", "low": row[rating].iat[0], "high": "", "unit": ""}
+        )
     for text in ("note", "source", "origin"):
         if text in row:
             records.append({"property": text, "low": row[text].iat[0], "high": "", "unit": ""})
@@ -181,11 +198,18 @@ def render_derivation(d: Any, fmt: str) -> str:
             indent=2,
         )
     if fmt == "md":
-        lines = [f"**Merit index:** $M = {d.index_latex}$", "", *[f"{i}. {s}" for i, s in enumerate(d.steps, 1)]]
+        lines = [
+            f"**Merit index:** $M = {d.index_latex}$",
+            "",
+            *[f"{i}. {s}" for i, s in enumerate(d.steps, 1)],
+        ]
         return "\n".join(lines)
     if fmt == "csv":
         return "symbol,exponent\n" + "\n".join(f"{k},{v:g}" for k, v in d.exponents.items())
-    lines = [f"{d.case.title}: minimise {d.objective}, {d.constraint} constraint, free: {d.geometry.free}", ""]
+    lines = [
+        f"{d.case.title}: minimise {d.objective}, {d.constraint} constraint, free: {d.geometry.free}",
+        "",
+    ]
     lines += [f"  {i}. {s}" for i, s in enumerate(d.steps, 1)]
     lines += ["", f"Merit index (maximise): M = {d.index_text}"]
     return "\n".join(lines)
@@ -208,7 +232,8 @@ def index_unit(exponents: dict[str, float]) -> str:
 def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -> pd.DataFrame:
     """The shortlist (and optionally the rejected classes) with units in the headers."""
     table = selection.table if show_all else selection.shortlist
-    unit = index_unit(selection.derivations[0].exponents)
+    exponents = selection.index_exponents
+    unit = index_unit(exponents) if exponents is not None else "as typed"
     out = pd.DataFrame(
         {
             "rank": table["rank"],
@@ -222,6 +247,10 @@ def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -
             "close_to_leader": table["close_to_leader"].astype(bool),
         }
     )
+    if "index_with_shape" in table and table["index_with_shape"].notna().any():
+        out.insert(
+            out.columns.get_loc("close_to_leader"), f"index_with_shape [{unit}]", table["index_with_shape"]
+        )
     if selection.sized:
         lf, mf = _LENGTH_FACTOR[units], _MASS_FACTOR[units]
         lu, mu = LENGTH_UNIT[units], MASS_UNIT[units]
@@ -245,8 +274,9 @@ def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -
     return out.reset_index(drop=True)
 
 
-def render_selection(selection: Any, fmt: str, units: str = "si", top: int | None = None,
-                     show_all: bool = False) -> str:
+def render_selection(
+    selection: Any, fmt: str, units: str = "si", top: int | None = None, show_all: bool = False
+) -> str:
     """The shortlist in the chosen format; the table form adds the derivation and the caution."""
     frame = selection_frame(selection, units, show_all)
     if top:
@@ -266,8 +296,11 @@ def render_selection(selection: Any, fmt: str, units: str = "si", top: int | Non
             lu = LENGTH_UNIT[units]
             names = sorted({k for d in flat["dimensions"] if isinstance(d, dict) for k in d})
             for k in names:
-                flat.insert(flat.columns.get_loc("dimensions"), f"{k} [{lu}]",
-                            [d.get(k) if isinstance(d, dict) else None for d in flat["dimensions"]])
+                flat.insert(
+                    flat.columns.get_loc("dimensions"),
+                    f"{k} [{lu}]",
+                    [d.get(k) if isinstance(d, dict) else None for d in flat["dimensions"]],
+                )
             flat = flat.drop(columns="dimensions")
             flat["utilisation"] = [_util_text(u) for u in flat["utilisation"]]
             flat["warnings"] = ["; ".join(w) if isinstance(w, list) else "" for w in flat["warnings"]]
@@ -275,15 +308,23 @@ def render_selection(selection: Any, fmt: str, units: str = "si", top: int | Non
         return flat.to_csv(index=False).rstrip("\n")
     shown = _compact(frame, units)
     body = render(shown, "md" if fmt == "md" else "table")
-    d = selection.derivations[0]
-    head = [f"{selection.spec.title}: {d.case.title}; minimise {d.objective}",
-            f"merit index (maximise): M = {d.index_text}"]
-    head += [f"also: {x.constraint} index M = {x.index_text}" for x in selection.derivations[1:]]
+    if selection.derivations:
+        d = selection.derivations[0]
+        head = [f"{selection.spec.title}: {d.case.title}; minimise {d.objective}"]
+    else:
+        head = [selection.spec.title]
+    head.append(f"merit index (maximise): M = {selection.index_text}")
+    shown = selection.derivations[1:] if selection.expression is None else selection.derivations
+    head += [f"also: {x.constraint} index M = {x.index_text}" for x in shown]
     head += [f"note: {n}" for n in selection.notes]
     ranked = "ranked by " + (f"{selection.ranked_by} of the sized part" if selection.sized else "merit index")
-    foot = [f"{len(selection.shortlist)} candidates ({ranked}); {len(selection.rejected)} rejected"
-            + ("" if show_all else " (--all lists them with reasons)"),
-            "* index range overlaps the leader's: too close to call", "", f"CAUTION: {selection.caution}"]
+    foot = [
+        f"{len(selection.shortlist)} candidates ({ranked}); {len(selection.rejected)} rejected"
+        + ("" if show_all else " (--all lists them with reasons)"),
+        "* index range overlaps the leader's: too close to call",
+        "",
+        f"CAUTION: {selection.caution}",
+    ]
     return "\n".join([*head, "", body, "", *foot])
 
 
@@ -296,14 +337,18 @@ def _util_text(u: Any) -> str:
 def _compact(frame: pd.DataFrame, units: str) -> pd.DataFrame:
     """Fewer, narrower columns for people."""
     index_col = next(c for c in frame.columns if c.startswith("index ["))
-    out = pd.DataFrame({
-        "rank": [("" if pd.isna(r) else f"{int(r)}{'*' if c else ''}")
-                 for r, c in zip(frame["rank"], frame["close_to_leader"], strict=True)],
-        "class": frame["name"],
-        "family": frame["family"],
-        "status": frame["status"],
-        index_col: frame[index_col],
-    })
+    out = pd.DataFrame(
+        {
+            "rank": [
+                ("" if pd.isna(r) else f"{int(r)}{'*' if c else ''}")
+                for r, c in zip(frame["rank"], frame["close_to_leader"], strict=True)
+            ],
+            "class": frame["name"],
+            "family": frame["family"],
+            "status": frame["status"],
+            index_col: frame[index_col],
+        }
+    )
     if "dimensions" in frame:
         lu = LENGTH_UNIT[units]
         out[f"size [{lu}]"] = [
@@ -348,10 +393,20 @@ def section_values(section: Any, units: str = "si") -> dict[str, dict[str, Any]]
     length, factor = ("mm", 1e3) if units == "si" else ("in", 1 / 0.0254)
     sup = {1: "", 2: "^2", 3: "^3", 4: "^4"}
     raw = {
-        "area": section.A, "Ixx": section.Ixx, "Iyy": section.Iyy, "Ixy": section.Ixy, "I11": section.I11,
-        "I22": section.I22, "Zx_top": section.Zx_top, "Zx_bottom": section.Zx_bottom,
-        "Zy_left": section.Zy_left, "Zy_right": section.Zy_right, "rx": section.rx, "ry": section.ry,
-        "J": section.J, "Zt": section.Zt,
+        "area": section.A,
+        "Ixx": section.Ixx,
+        "Iyy": section.Iyy,
+        "Ixy": section.Ixy,
+        "I11": section.I11,
+        "I22": section.I22,
+        "Zx_top": section.Zx_top,
+        "Zx_bottom": section.Zx_bottom,
+        "Zy_left": section.Zy_left,
+        "Zy_right": section.Zy_right,
+        "rx": section.rx,
+        "ry": section.ry,
+        "J": section.J,
+        "Zt": section.Zt,
     }
     out: dict[str, dict[str, Any]] = {}
     for key, _label, power in SECTION_ROWS:
@@ -372,10 +427,13 @@ def render_section(section: Any, fmt: str, units: str = "si") -> str:
     """A section's properties in the chosen format."""
     values = section_values(section, units)
     if fmt == "json":
-        return json.dumps({"shape": section.shape, **values, "J_method": section.J_method,
-                           "Zt_method": section.Zt_method}, indent=2)
+        return json.dumps(
+            {"shape": section.shape, **values, "J_method": section.J_method, "Zt_method": section.Zt_method},
+            indent=2,
+        )
     labels = {key: label for key, label, _ in SECTION_ROWS} | {
-        "principal_angle": "principal angle", "shape_factor_bending": "shape factor, bending stiffness",
+        "principal_angle": "principal angle",
+        "shape_factor_bending": "shape factor, bending stiffness",
         "shape_factor_bending_strength": "shape factor, bending strength",
         "shape_factor_torsion": "shape factor, torsion stiffness",
         "shape_factor_torsion_strength": "shape factor, torsion strength",

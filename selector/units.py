@@ -58,7 +58,9 @@ def _unit(text: str, where: str) -> tuple[float, Any]:
             return scale, 1 / ureg.parse_units(body[2:])
         return scale, ureg.parse_units(body)
     except (pint.errors.PintError, ValueError, TypeError, AttributeError, SyntaxError, AssertionError) as exc:
-        raise UnitError(where, f"unknown unit {text!r}", "a unit such as MPa, GPa, kg/m^3, degC, mm, kN") from exc
+        raise UnitError(
+            where, f"unknown unit {text!r}", "a unit such as MPa, GPa, kg/m^3, degC, mm, kN"
+        ) from exc
 
 
 def quantity(text: str, where: str = "value") -> pint.Quantity:
@@ -69,9 +71,13 @@ def quantity(text: str, where: str = "value") -> pint.Quantity:
     import pint
 
     if not isinstance(text, str):
-        raise UnitError(where, f"{text!r} has no unit", 'a quantity written as text with its unit, e.g. "2 kN"')
+        raise UnitError(
+            where, f"{text!r} has no unit", 'a quantity written as text with its unit, e.g. "2 kN"'
+        )
     if _NUMBER.match(text):
-        raise UnitError(where, f"{text.strip()!r} has no unit", 'a value with its unit, e.g. "2 kN" or "4 mm"')
+        raise UnitError(
+            where, f"{text.strip()!r} has no unit", 'a value with its unit, e.g. "2 kN" or "4 mm"'
+        )
     match = re.match(r"^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(.*?)\s*$", text)
     if not match or not match.group(2):
         raise UnitError(where, f"cannot read {text!r}", 'a number followed by a unit, e.g. "2 kN"')
@@ -96,7 +102,9 @@ def _to(q: Any, unit: str, where: str, shown: str) -> float:
     try:
         return float(q.to(target).magnitude) / scale
     except pint.errors.DimensionalityError:
-        raise UnitError(where, f"{shown!r} is not a {describe(unit)}", f"a value in units like {unit}") from None
+        raise UnitError(
+            where, f"{shown!r} is not a {describe(unit)}", f"a value in units like {unit}"
+        ) from None
 
 
 def describe(unit: str) -> str:

@@ -17,15 +17,32 @@ def make_table(rows: list[dict]) -> pd.DataFrame:
     other properties are unaffected.
     """
     defaults = {
-        "rho": (1000.0, 1000.0), "E": (1.0, 1.0), "G": (0.4, 0.4), "nu": (0.3, 0.3),
-        "sigma_y": (10.0, 10.0), "sigma_ts": (20.0, 20.0), "sigma_c": (10.0, 10.0),
-        "elongation": (5.0, 5.0), "K_IC": (1.0, 1.0), "sigma_e": (5.0, 5.0), "T_max": (100.0, 100.0),
-        "T_min": (-50.0, -50.0), "lambda": (1.0, 1.0), "alpha": (10.0, 10.0), "c_p": (1000.0, 1000.0),
-        "price": (1.0, 1.0), "co2": (1.0, 1.0), "energy": (10.0, 10.0),
+        "rho": (1000.0, 1000.0),
+        "E": (1.0, 1.0),
+        "G": (0.4, 0.4),
+        "nu": (0.3, 0.3),
+        "sigma_y": (10.0, 10.0),
+        "sigma_ts": (20.0, 20.0),
+        "sigma_c": (10.0, 10.0),
+        "elongation": (5.0, 5.0),
+        "K_IC": (1.0, 1.0),
+        "sigma_e": (5.0, 5.0),
+        "T_max": (100.0, 100.0),
+        "T_min": (-50.0, -50.0),
+        "lambda": (1.0, 1.0),
+        "alpha": (10.0, 10.0),
+        "c_p": (1000.0, 1000.0),
+        "price": (1.0, 1.0),
+        "co2": (1.0, 1.0),
+        "energy": (10.0, 10.0),
     }
     records = []
     for row in rows:
-        rec: dict = {"id": row["id"], "name": row.get("name", row["id"]), "family": row.get("family", "metal")}
+        rec: dict = {
+            "id": row["id"],
+            "name": row.get("name", row["id"]),
+            "family": row.get("family", "metal"),
+        }
         for symbol, prop in PROPERTIES.items():
             lo, hi = row.get(symbol, defaults[symbol])
             rec[prop.low], rec[prop.high] = float(lo), float(hi)

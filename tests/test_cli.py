@@ -74,8 +74,18 @@ def test_materials_show_unknown_id_is_one_line():
 
 
 def test_derive_json_index(run):
-    result = run("derive", "beam", "--objective", "mass", "--constraint", "stiffness", "--free", "scale",
-                 "--format", "json")
+    result = run(
+        "derive",
+        "beam",
+        "--objective",
+        "mass",
+        "--constraint",
+        "stiffness",
+        "--free",
+        "scale",
+        "--format",
+        "json",
+    )
     assert result.exit_code == 0
     assert json.loads(result.output)["index"] == {"E": 0.5, "rho": -1.0}
 

@@ -30,9 +30,18 @@ def test_monomial_solve_and_substitute():
 @pytest.mark.parametrize(
     ("args", "message"),
     [
-        (("beam", "buckling"), "constraint.type: 'buckling' does not apply to a beam; one of: stiffness, strength"),
-        (("tie", "stiffness", "mass", "wall"), "section.free: 'wall' cannot be chosen for a tie; one of: scale"),
-        (("beam", "stiffness", "weight"), "objective.minimize: 'weight' is not an objective; expected one of:"),
+        (
+            ("beam", "buckling"),
+            "constraint.type: 'buckling' does not apply to a beam; one of: stiffness, strength",
+        ),
+        (
+            ("tie", "stiffness", "mass", "wall"),
+            "section.free: 'wall' cannot be chosen for a tie; one of: scale",
+        ),
+        (
+            ("beam", "stiffness", "weight"),
+            "objective.minimize: 'weight' is not an objective; expected one of:",
+        ),
         (("bean", "stiffness"), "part.function: 'bean' is not supported here; did you mean 'beam'?"),
     ],
 )

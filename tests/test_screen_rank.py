@@ -31,11 +31,13 @@ def test_ranking_five_classes_by_hand(five_classes):
 
 
 def test_overlapping_ranges_are_too_close_to_call():
-    table = make_table([
-        {"id": "x", "E": (90, 110), "rho": (1000, 1000)},
-        {"id": "y", "E": (80, 100), "rho": (1000, 1000)},
-        {"id": "z", "E": (10, 20), "rho": (1000, 1000)},
-    ])
+    table = make_table(
+        [
+            {"id": "x", "E": (90, 110), "rho": (1000, 1000)},
+            {"id": "y", "E": (80, 100), "rho": (1000, 1000)},
+            {"id": "z", "E": (10, 20), "rho": (1000, 1000)},
+        ]
+    )
     screened = apply_screens(table, parse_screens({}))
     ranked = rank_by_index(screened, *monomial_index(screened, {"E": 1, "rho": -1}))
     flags = dict(zip(ranked["id"], ranked["close_to_leader"], strict=True))
@@ -43,10 +45,12 @@ def test_overlapping_ranges_are_too_close_to_call():
 
 
 def test_conservative_ranking_uses_the_unfavourable_end():
-    table = make_table([
-        {"id": "wide", "E": (10, 400), "rho": (1000, 1000)},
-        {"id": "narrow", "E": (50, 60), "rho": (1000, 1000)},
-    ])
+    table = make_table(
+        [
+            {"id": "wide", "E": (10, 400), "rho": (1000, 1000)},
+            {"id": "narrow", "E": (50, 60), "rho": (1000, 1000)},
+        ]
+    )
     screened = apply_screens(table, parse_screens({}))
     idx = monomial_index(screened, {"E": 1, "rho": -1})
     assert list(rank_by_index(screened, *idx)["id"]) == ["wide", "narrow"]
@@ -64,20 +68,29 @@ def test_conservative_ranking_uses_the_unfavourable_end():
     ],
 )
 def test_screen_semantics_on_ranges(limit, expected):
-    table = make_table([
-        {"id": "low", "T_max": (60, 80)},
-        {"id": "wide", "T_max": (70, 150)},
-        {"id": "at", "T_max": (100, 100)},
-    ])
+    table = make_table(
+        [
+            {"id": "low", "T_max": (60, 80)},
+            {"id": "wide", "T_max": (70, 150)},
+            {"id": "at", "T_max": (100, 100)},
+        ]
+    )
     out = apply_screens(table, parse_screens({"T_max": limit}))
     assert list(out["status"]) == expected
 
 
 def test_every_reason_is_kept():
     table = make_table([{"id": "p", "family": "polymer", "T_max": (60, 80), "salt_water": "fair"}])
-    out = apply_screens(table, parse_screens({
-        "T_max": ">= 100 degC", "salt_water": ">= good", "families": ["metal"],
-    }))
+    out = apply_screens(
+        table,
+        parse_screens(
+            {
+                "T_max": ">= 100 degC",
+                "salt_water": ">= good",
+                "families": ["metal"],
+            }
+        ),
+    )
     reasons = out["reasons"].iat[0]
     assert out["status"].iat[0] == REJECTED
     assert len(reasons) == 3
@@ -105,7 +118,12 @@ def test_limits_convert_units():
         ("T_max", "60 degC", InputError, "screen.T_max: cannot read limit '60 degC'"),
         ("T_max", ">= 60", UnitError, "screen.T_max: '60' has no unit"),
         ("T_max", ">= 60 MPa", UnitError, "screen.T_max: '60 MPa' is not a temperature"),
-        ("uv", ">= great", InputError, "screen.uv: 'great' is not a rating; one of: poor, fair, good, excellent"),
+        (
+            "uv",
+            ">= great",
+            InputError,
+            "screen.uv: 'great' is not a rating; one of: poor, fair, good, excellent",
+        ),
     ],
 )
 def test_bad_limits_are_clear(symbol, text, error, message):

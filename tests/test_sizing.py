@@ -12,19 +12,34 @@ from selector.spec import spec_from_dict
 
 from .conftest import make_table
 
-ALUMINIUM_LIKE = {"id": "al", "E": (70, 70), "rho": (2700, 2700), "sigma_y": (250, 250),
-                  "sigma_ts": (300, 300), "price": (3, 3), "co2": (12, 12)}
+ALUMINIUM_LIKE = {
+    "id": "al",
+    "E": (70, 70),
+    "rho": (2700, 2700),
+    "sigma_y": (250, 250),
+    "sigma_ts": (300, 300),
+    "price": (3, 3),
+    "co2": (12, 12),
+}
 
 
 def _beam_spec(constraints, shape="rectangle", free="scale", dims=None, **part):
     section = {"shape": shape, "free": free, **(dims or {"b": "20 mm", "h": "40 mm"})}
-    return spec_from_dict({
-        "title": "test beam",
-        "part": {"function": "beam", "support": "cantilever", "load": "end", "length": "1 m",
-                 "force": "100 N", **part},
-        "section": section,
-        "constraint": constraints,
-    })
+    return spec_from_dict(
+        {
+            "title": "test beam",
+            "part": {
+                "function": "beam",
+                "support": "cantilever",
+                "load": "end",
+                "length": "1 m",
+                "force": "100 N",
+                **part,
+            },
+            "section": section,
+            "constraint": constraints,
+        }
+    )
 
 
 def test_stiffness_governs_worked_by_hand():
@@ -33,8 +48,9 @@ def test_stiffness_governs_worked_by_hand():
     # With h = 2b: I = b(2b)³/12 = (2/3) b⁴ → b = (1.5·9.5238e-8)^¼ = 19.44 mm, h = 38.88 mm.
     # Mass = ρ·b·h·L = 2700·0.019441·0.038883·1 = 2.041 kg.
     # Strength check: Z = b h²/6 = 4.899e-6 m³; σ = F L/Z = 20.41 MPa; SF 1.5 → utilisation 0.1225.
-    spec = _beam_spec([{"type": "stiffness", "max_deflection": "5 mm"},
-                       {"type": "strength", "safety_factor": 1.5}])
+    spec = _beam_spec(
+        [{"type": "stiffness", "max_deflection": "5 mm"}, {"type": "strength", "safety_factor": 1.5}]
+    )
     row = select(spec, make_table([ALUMINIUM_LIKE])).shortlist.iloc[0]
     b = (1.5 * 100 / (3 * 70e9 * 0.005)) ** 0.25
     assert row["dimensions"]["b"] == pytest.approx(b, rel=1e-9)
@@ -54,8 +70,10 @@ def test_strength_governs_worked_by_hand():
     # Z = F L/σ_allow = 2000/125e6 = 1.6e-5 m³; with h = 2b: Z = b(2b)²/6 = (2/3) b³
     # → b = (1.5·1.6e-5)^⅓ = 28.84 mm, h = 57.69 mm; mass = 2700·b·h = 4.493 kg.
     # Stiffness check: I = (2/3) b⁴ = 4.615e-7 m⁴; δ = F L³/(3 E I) = 20.6 mm → utilisation 0.413.
-    spec = _beam_spec([{"type": "stiffness", "max_deflection": "50 mm"},
-                       {"type": "strength", "safety_factor": 2.0}], force="2 kN")
+    spec = _beam_spec(
+        [{"type": "stiffness", "max_deflection": "50 mm"}, {"type": "strength", "safety_factor": 2.0}],
+        force="2 kN",
+    )
     row = select(spec, make_table([ALUMINIUM_LIKE])).shortlist.iloc[0]
     b = (1.5 * 2000 / 125e6) ** (1 / 3)
     assert row["dimensions"]["b"] == pytest.approx(b, rel=1e-9)
@@ -73,16 +91,27 @@ def _random_table(n: int, seed: int):
         e = rng.uniform(1, 300)
         rho = rng.uniform(100, 9000)
         sy = rng.uniform(10, 1000)
-        rows.append({"id": f"m{i}", "E": (e, e * rng.uniform(1, 1.3)), "rho": (rho, rho * rng.uniform(1, 1.2)),
-                     "sigma_y": (sy, sy * 1.1), "sigma_ts": (sy * 1.2, sy * 1.4), "price": (1, 2)})
+        rows.append(
+            {
+                "id": f"m{i}",
+                "E": (e, e * rng.uniform(1, 1.3)),
+                "rho": (rho, rho * rng.uniform(1, 1.2)),
+                "sigma_y": (sy, sy * 1.1),
+                "sigma_ts": (sy * 1.2, sy * 1.4),
+                "price": (1, 2),
+            }
+        )
     return make_table(rows)
 
 
-@pytest.mark.parametrize(("shape", "free", "dims"), [
-    ("tube", "scale", {"d": "50 mm", "t": "2 mm"}),
-    ("rectangle", "depth", {"b": "30 mm", "h": "50 mm"}),
-    ("i-section", "scale", {"b": "60 mm", "h": "120 mm", "tf": "8 mm", "tw": "5 mm"}),
-])
+@pytest.mark.parametrize(
+    ("shape", "free", "dims"),
+    [
+        ("tube", "scale", {"d": "50 mm", "t": "2 mm"}),
+        ("rectangle", "depth", {"b": "30 mm", "h": "50 mm"}),
+        ("i-section", "scale", {"b": "60 mm", "h": "120 mm", "tf": "8 mm", "tw": "5 mm"}),
+    ],
+)
 def test_sized_ranking_agrees_with_index_ranking_when_one_constraint_governs(shape, free, dims):
     # One constraint only, so it governs everywhere: the mass order must equal the index order.
     spec = _beam_spec([{"type": "stiffness", "max_deflection": "5 mm"}], shape=shape, free=free, dims=dims)
@@ -96,8 +125,12 @@ def test_sized_ranking_agrees_with_index_ranking_when_one_constraint_governs(sha
 def test_tube_wall_free_uses_the_exact_section():
     # With the diameter fixed and the wall free, the thin-wall model is only a start;
     # the exact tube must end with utilisation 1 (root finder on the exact I).
-    spec = _beam_spec([{"type": "stiffness", "max_deflection": "5 mm"}], shape="tube", free="wall",
-                      dims={"d": "40 mm", "t": "2 mm"})
+    spec = _beam_spec(
+        [{"type": "stiffness", "max_deflection": "5 mm"}],
+        shape="tube",
+        free="wall",
+        dims={"d": "40 mm", "t": "2 mm"},
+    )
     row = select(spec, make_table([ALUMINIUM_LIKE])).shortlist.iloc[0]
     d, t = 0.04, row["dimensions"]["t"]
     exact_i = math.pi / 64 * (d**4 - (d - 2 * t) ** 4)  # common practice, no source

@@ -27,20 +27,34 @@ def test_examples_load(path):
 @pytest.mark.parametrize(
     ("data", "message"),
     [
-        ({"part": {"function": "beam", "lenght": "1 m"}},
-         "x.toml: part.lenght: unknown key 'lenght'; did you mean 'length'?"),
-        ({"part": {"function": "bem"}},
-         "x.toml: part.function: 'bem' is not a function; did you mean 'beam'?"),
-        ({"part": {"function": "beam"}, "constraint": [{"type": "stifness"}]},
-         "x.toml: constraint[0].type: 'stifness' is not a constraint type; did you mean 'stiffness'?"),
-        ({"part": {"function": "beam"}, "screen": {"Tmax": ">= 3 degC"}},
-         "x.toml: screen: unknown screen 'Tmax'; did you mean 'T_max'?"),
-        ({"part": {"function": "beam"}, "objectiv": {}},
-         "x.toml: objectiv: unknown key 'objectiv'; did you mean 'objective'?"),
-        ({"part": {"function": "beam"}, "section": {"free": "depht"}},
-         "x.toml: section.free: 'depht' is not a free variable; did you mean 'depth'?"),
-        ({"part": {"function": "beam"}, "screen": {"families": ["metals"]}},
-         "x.toml: screen: families = ['metals']; expected a list of: metal,"),
+        (
+            {"part": {"function": "beam", "lenght": "1 m"}},
+            "x.toml: part.lenght: unknown key 'lenght'; did you mean 'length'?",
+        ),
+        (
+            {"part": {"function": "bem"}},
+            "x.toml: part.function: 'bem' is not a function; did you mean 'beam'?",
+        ),
+        (
+            {"part": {"function": "beam"}, "constraint": [{"type": "stifness"}]},
+            "x.toml: constraint[0].type: 'stifness' is not a constraint type; did you mean 'stiffness'?",
+        ),
+        (
+            {"part": {"function": "beam"}, "screen": {"Tmax": ">= 3 degC"}},
+            "x.toml: screen: unknown screen 'Tmax'; did you mean 'T_max'?",
+        ),
+        (
+            {"part": {"function": "beam"}, "objectiv": {}},
+            "x.toml: objectiv: unknown key 'objectiv'; did you mean 'objective'?",
+        ),
+        (
+            {"part": {"function": "beam"}, "section": {"free": "depht"}},
+            "x.toml: section.free: 'depht' is not a free variable; did you mean 'depth'?",
+        ),
+        (
+            {"part": {"function": "beam"}, "screen": {"families": ["metals"]}},
+            "x.toml: screen: families = ['metals']; expected a list of: metal,",
+        ),
         ({}, "x.toml: part: required field is missing"),
     ],
 )

@@ -208,7 +208,8 @@ def _plate() -> LoadCase:
         },
         responses={"stress": M.of(1, F=1, b=-1, t=-1)},
         equations={
-            "buckling": f"σ = F/(b·t) ≤ σ_cr/SF, σ_cr = k·π²·E/(12(1−ν²))·(t/b)², k = {PLATE_K:g}, ν = {PLATE_NU}",
+            "buckling": f"σ = F/(b·t) ≤ σ_cr/SF, σ_cr = k·π²·E/(12(1−ν²))·(t/b)², "
+            f"k = {PLATE_K:g}, ν = {PLATE_NU}",
             "strength": "σ = F/(b·t) ≤ σ_c/SF",
         },
         volume=M.of(1, b=1, t=1, L=1),

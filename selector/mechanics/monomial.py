@@ -69,10 +69,10 @@ class Monomial:
     def __truediv__(self, other: Monomial | float) -> Monomial:
         if not isinstance(other, Monomial):
             return Monomial(self.coef / float(other), self.powers)
-        return self * other ** -1
+        return self * other**-1
 
     def __rtruediv__(self, other: float) -> Monomial:
-        return Monomial(float(other), ()) * self ** -1
+        return Monomial(float(other), ()) * self**-1
 
     def __pow__(self, power: float | Fraction) -> Monomial:
         p = _frac(power)
@@ -90,7 +90,7 @@ class Monomial:
         power = self.power_of(name)
         if power == 0:
             raise ValueError(f"{name} does not appear in {self}")
-        var, rest = self.split([name])
+        _, rest = self.split([name])
         return (equals / rest) ** (1 / power)
 
     def substitute(self, name: str, value: Monomial) -> Monomial:

@@ -20,13 +20,34 @@ CASES = [
     ("beam", "stiffness", "mass", "scale", "simply-supported", {"E": 0.5, "rho": -1}),  # E^1/2/ρ
     ("beam", "stiffness", "mass", "scale", "cantilever", {"E": 0.5, "rho": -1}),  # E^1/2/ρ
     ("beam", "strength", "mass", "scale", "simply-supported", {"sigma_y": 2 / 3, "rho": -1}),  # σ_f^2/3/ρ
-    ("beam", "stiffness", "cost", "scale", "fixed-fixed", {"E": 0.5, "rho": -1, "price": -1}),  # E^1/2/(C_m ρ)
+    (
+        "beam",
+        "stiffness",
+        "cost",
+        "scale",
+        "fixed-fixed",
+        {"E": 0.5, "rho": -1, "price": -1},
+    ),  # E^1/2/(C_m ρ)
     ("beam", "strength", "cost", "scale", "cantilever", {"sigma_y": 2 / 3, "rho": -1, "price": -1}),
     ("beam", "stiffness", "mass", "depth", "simply-supported", {"E": 1 / 3, "rho": -1}),  # rectangle, h free
-    ("beam", "strength", "mass", "depth", "simply-supported", {"sigma_y": 1 / 2, "rho": -1}),  # rectangle, h free
+    (
+        "beam",
+        "strength",
+        "mass",
+        "depth",
+        "simply-supported",
+        {"sigma_y": 1 / 2, "rho": -1},
+    ),  # rectangle, h free
     ("beam", "stiffness", "mass", "width", "simply-supported", {"E": 1, "rho": -1}),  # rectangle, b free
     ("panel", "stiffness", "mass", "thickness", "simply-supported", {"E": 1 / 3, "rho": -1}),  # E^1/3/ρ
-    ("panel", "strength", "mass", "thickness", "simply-supported", {"sigma_y": 1 / 2, "rho": -1}),  # σ_f^1/2/ρ
+    (
+        "panel",
+        "strength",
+        "mass",
+        "thickness",
+        "simply-supported",
+        {"sigma_y": 1 / 2, "rho": -1},
+    ),  # σ_f^1/2/ρ
     ("panel", "stiffness", "cost", "thickness", "cantilever", {"E": 1 / 3, "rho": -1, "price": -1}),
     ("column", "buckling", "mass", "scale", "pinned-pinned", {"E": 0.5, "rho": -1}),  # E^1/2/ρ
     ("column", "buckling", "co2", "scale", "fixed-free", {"E": 0.5, "rho": -1, "co2": -1}),  # E^1/2/(CO2 ρ)
