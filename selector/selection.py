@@ -13,7 +13,7 @@ from selector.errors import InputError
 from selector.mechanics.loadcases import load_case
 from selector.properties import PROPERTIES
 from selector.rank import monomial_index, rank_by_index, rank_by_value
-from selector.screen import Screens, apply_screens, parse_screens
+from selector.screen import REJECTED, Screens, apply_screens, parse_screens
 from selector.sizing import DEFAULT_DIMS, Design, missing_inputs, size_parts
 from selector.spec import DIMENSION_FIELDS, QUANTITY_FIELDS, Spec
 
@@ -227,8 +227,9 @@ def select(
         return Selection(
             spec, screens, tuple(derivations), table, "index", notes=tuple(notes), expression=expression
         )
-    sized = size_parts(table, derivations, design)
-    table = pd.concat([table, sized], axis=1)
+    alive = table["status"] != REJECTED
+    sized = size_parts(table[alive], derivations, design)
+    table = pd.concat([table, sized.reindex(table.index)], axis=1)
     objective = spec.objective.minimize
     table["objective"] = table[objective].where(table["feasible"].fillna(False).astype(bool), math.inf)
     table = rank_by_value(table, "objective", "objective_low", "objective_high")
