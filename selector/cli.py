@@ -141,17 +141,35 @@ def derive(function, objective, constraint, free, support, load, fmt) -> None:
 @click.option("--index", "expression", default=None, help='Rank by a typed index, e.g. "E^0.5/rho".')
 @click.option("--top", type=click.IntRange(min=1), default=None, help="Show the best N only.")
 @click.option("--all", "show_all", is_flag=True, help="Also list the rejected classes with reasons.")
+@click.option("--tradeoff", "other", default=None, help="Second objective for a Pareto front: mass|cost|co2|volume.")
+@click.option("--exchange", default=None, help='Value of the ranked objective saved, e.g. "40 USD/kg".')
+@click.option("--robust", "draws", type=click.IntRange(min=1), default=None, help="Monte Carlo draws over ranges.")
+@click.option("--seed", type=int, default=None, help="Seed for --robust (a fixed default otherwise).")
+@click.option(
+    "--distribution", type=click.Choice(("log-uniform", "triangular", "log-normal")), default="log-uniform",
+    show_default=True, help="How --robust samples each property range.",
+)
 @format_option
 @units_option
 @click.option("-o", "--output", type=click.Path(), default=None, help="Write to FILE (format from extension).")
-def rank(spec, files, no_builtin, conservative, expression, top, show_all, fmt, units, output) -> None:
-    """Screen, derive, size and rank the classes for a SPEC file."""
+def rank(
+    spec, files, no_builtin, conservative, expression, top, show_all, other, exchange, draws, seed, distribution,
+    fmt, units, output,
+) -> None:
+    """Screen, derive, size and rank the classes for a SPEC file.
+
+    With --tradeoff the Pareto front against a second objective is shown (and a penalty
+    ranking with --exchange); with --robust, the odds of each rank under property scatter.
+    """
     from selector import tables
     from selector.api import run_spec
 
     selection = run_spec(spec, files, no_builtin, conservative, expression, protect=[spec, *files], output=output)
     fmt = fmt or tables.format_for(output)
     units = units or selection.spec.units
+    if other is not None or draws is not None:
+        _emit(_studies(selection, other, exchange, draws, seed, distribution, fmt), output)
+        return
     if output and fmt == "xlsx":
         from selector.export import write_xlsx
 
@@ -159,6 +177,25 @@ def rank(spec, files, no_builtin, conservative, expression, top, show_all, fmt, 
         click.echo(f"wrote {output}", err=True)
         return
     _emit(tables.render_selection(selection, fmt, units, top, show_all), output)
+
+
+def _studies(selection, other, exchange, draws, seed, distribution, fmt) -> str:
+    """Text of the trade-off and robustness studies asked for on `rank`."""
+    parts = []
+    if other is not None:
+        from selector.tradeoff import render_tradeoff, tradeoff_report
+
+        front, second = tradeoff_report(selection, other, exchange)
+        parts.append(render_tradeoff(front, second, fmt if fmt != "xlsx" else "table", exchange))
+    if draws is not None:
+        from selector.robust import render_robustness, robustness, sensitivity
+
+        result = robustness(selection, draws=draws, seed=seed, distribution=distribution)
+        effects = sensitivity(selection, seed=seed, distribution=distribution)
+        parts.append(render_robustness(result, fmt if fmt != "xlsx" else "table", effects))
+    if fmt in (None, "table", "md"):
+        parts.append(f"CAUTION: {selection.caution}")
+    return "\n\n".join(parts)
 
 
 @cli.command()
@@ -187,6 +224,73 @@ def section(shape, dims, fmt, units) -> None:
 
     section = build_section(shape, parse_dimension_args(shape, dims))
     click.echo(tables.render_section(section, fmt or "table", units or "si"))
+
+
+@cli.command()
+@click.option("--x", "x_axis", default=None, help="Property or expression on the x axis, e.g. rho.")
+@click.option("--y", "y_axis", default=None, help="Property or expression on the y axis, e.g. E.")
+@click.option("--spec", type=click.Path(), default=None, help="Show the screens, shortlist, index of SPEC.")
+@click.option("--index", default=None, help='Merit index for the index lines, e.g. "E^0.5/rho".')
+@click.option("--through", default=None, help="Class id the index line passes through.")
+@click.option("--at", "at_value", type=float, default=None, help="Index value of the line (chart units).")
+@click.option("--top", type=click.IntRange(min=0), default=5, show_default=True, help="Name the best N.")
+@click.option("--title", default=None, help="Chart title.")
+@click.option("--materials", "files", multiple=True, type=click.Path(), help="Add a materials file.")
+@click.option("--no-builtin", is_flag=True, help="Chart the given materials files alone.")
+@units_option
+@click.option("-o", "--output", type=click.Path(), required=True, help="chart.html, .png, .svg or .pdf")
+def chart(
+    x_axis, y_axis, spec, index, through, at_value, top, title, files, no_builtin, units, output
+) -> None:
+    """Draw a property chart: every class as a box, with index lines, screens and shortlist."""
+    from selector.api import check_output
+    from selector.charts import chart_for_selection, property_chart, write_chart
+
+    if spec:
+        from selector.api import run_spec
+
+        selection = run_spec(spec, files, no_builtin, protect=[spec, *files], output=output)
+        fig = chart_for_selection(
+            selection, x_axis, y_axis, units, index=index, through=through, at=at_value, top=top, title=title
+        )
+    else:
+        from selector.errors import InputError
+        from selector.materials import load_materials
+
+        if not x_axis or not y_axis:
+            raise InputError("chart", "--x and --y are needed without --spec", "e.g. --x rho --y E")
+        check_output(output, files)
+        table = load_materials(files, builtin=not no_builtin)
+        fig = property_chart(
+            table, x_axis, y_axis, units=units or "si", index=index, through=through, at=at_value, title=title
+        )
+    write_chart(fig, Path(output))
+    click.echo(f"wrote {output}", err=True)
+
+
+@cli.command()
+@click.argument("spec", type=click.Path())
+@click.option("--materials", "files", multiple=True, type=click.Path(), help="Add a materials file (repeatable).")
+@click.option("--no-builtin", is_flag=True, help="Use the given materials files alone.")
+@units_option
+@click.option(
+    "--robust",
+    "draws",
+    type=click.IntRange(min=0),
+    default=2000,
+    show_default=True,
+    help="Monte Carlo draws for the robustness figures (0 leaves them out).",
+)
+@click.option("--seed", type=click.IntRange(min=0), default=None, help="Random seed of the draws.")
+@click.option(
+    "-o", "--output", type=click.Path(), default="report.html", show_default=True, help="The report file (.html)."
+)
+def report(spec, files, no_builtin, units, draws, seed, output) -> None:
+    """Write a self-contained HTML design report for a SPEC file (opens offline, prints cleanly)."""
+    from selector.report import report_from_spec
+
+    path = report_from_spec(spec, output, files, no_builtin, units, draws, seed)
+    click.echo(f"wrote {path}", err=True)
 
 
 def main() -> None:

@@ -166,3 +166,24 @@ def test_demo_writes_files(tmp_path):
     assert result.returncode == 0, result.stderr
     assert "wrote" in result.stdout
     assert (tmp_path / "demo" / "shortlist.csv").exists()
+
+
+def test_rank_tradeoff_and_penalty(run):
+    spec = str(EXAMPLES / "camera-dolly-boom.toml")
+    result = run("rank", spec, "--tradeoff", "cost", "--exchange", "10 USD/kg", "--format", "json")
+    assert result.exit_code == 0
+    assert "penalty" in result.output
+
+
+def test_rank_robust_is_deterministic(run):
+    spec = str(EXAMPLES / "camera-dolly-boom.toml")
+    first = run("rank", spec, "--robust", "500", "--seed", "3", "--format", "csv").output
+    again = run("rank", spec, "--robust", "500", "--seed", "3", "--format", "csv").output
+    assert first == again
+    assert "p_best" in first
+
+
+def test_rank_bad_exchange_is_one_line():
+    result = _main("rank", str(EXAMPLES / "camera-dolly-boom.toml"), "--tradeoff", "cost", "--exchange", "10 MPa")
+    assert result.returncode == 2
+    assert result.stderr.startswith("error: --exchange:")
