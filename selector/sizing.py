@@ -99,37 +99,44 @@ def _inputs(d: Derivation, design: Design, constants: Mapping[str, float]) -> di
 
 
 def size_parts(table: pd.DataFrame, derivations: list[Derivation], design: Design) -> pd.DataFrame:
-    """Size every row of ``table``; returns new columns (one row per class, same order)."""
-    ref = dict(design.dims)
-    shape = design.shape
-    if design.free == "scale" and derivations[0].case.function not in ("spring",):
-        constants = shape_constants(shape, ref)
-    else:
-        constants = {}
+    """Size every row of ``table``; returns new columns (one row per class, same order).
+
+    ``objective_low`` / ``objective_high`` bound the objective with every property at
+    its favourable / unfavourable end of the class range.
+    """
+    constants = design_constants(derivations, design)
     symbols = set().union(*(d.objective_value.symbols | d.solution.symbols for d in derivations))
     mid = _si(table, symbols, "mid")
-    x_each = {d.constraint: d.solution.evaluate(mid | _inputs(d, design, constants)) for d in derivations}
-    x_stack = np.vstack([np.broadcast_to(v, len(table)) for v in x_each.values()])
-    x = np.nanmax(x_stack, axis=0)
-    cols: dict[str, object] = {}
-    # Objective ranges from the monomials at the unfavourable / favourable property ends.
-    for end, label in (("low", "best"), ("high", "worst")):
-        values = []
-        for d in derivations:
-            exps = d.objective_value.exponents
-            props = {}
-            for s in d.objective_value.symbols & set(PROPERTIES):
-                lo_hi = _si(table, {s}, "high" if (exps[s] > 0) == (label == "worst") else "low")
-                props.update(lo_hi)
-            values.append(d.objective_value.evaluate(props | _inputs(d, design, constants)))
-        cols[f"objective_{label}"] = np.nanmax(np.vstack([np.broadcast_to(v, len(table)) for v in values]), axis=0)
-    rows = [
-        _one_part(table.iloc[i], x[i], derivations, design, mid, i, constants) for i in range(len(table))
-    ]
+    x = _governing(
+        [
+            np.broadcast_to(d.solution.evaluate(mid | _inputs(d, design, constants)), len(table))
+            for d in derivations
+        ]
+    )
+    rows = [_one_part(table.iloc[i], x[i], derivations, design, mid, i, constants) for i in range(len(table))]
     frame = pd.DataFrame(rows, index=table.index)
-    frame["objective_low"] = cols["objective_best"]
-    frame["objective_high"] = cols["objective_worst"]
+    for column, worst in (("objective_low", False), ("objective_high", True)):
+        frame[column] = _governing(
+            [_objective_at_end(table, d, design, constants, worst) for d in derivations]
+        )
     return frame
+
+
+def _governing(values: list[np.ndarray]) -> np.ndarray:
+    """The largest requirement over the constraints, ignoring those that cannot be evaluated."""
+    with np.errstate(invalid="ignore"):
+        return np.fmax.reduce(np.vstack(values), axis=0)
+
+
+def _objective_at_end(
+    table: pd.DataFrame, d: Derivation, design: Design, constants: Mapping[str, float], worst: bool
+) -> np.ndarray:
+    """One constraint's objective with each property at its unfavourable (or favourable) end."""
+    props: dict[str, np.ndarray] = {}
+    for symbol, power in d.objective_value.powers:
+        if symbol in PROPERTIES:
+            props |= _si(table, {symbol}, "high" if (power > 0) == worst else "low")
+    return np.broadcast_to(d.objective_value.evaluate(props | _inputs(d, design, constants)), len(table))
 
 
 def _dims_for(design: Design, x: float, fn: str) -> dict[str, float]:
@@ -164,7 +171,10 @@ def _one_part(row, x, derivations, design, mid, i, constants) -> dict[str, objec
     if _approximate(design, fn):
         dims, geometry = _refine(design, dims, derivations, props, fn)
         if geometry is None:
-            return {"feasible": False, "size_warnings": ["no valid section of this shape meets the constraints"]}
+            return {
+                "feasible": False,
+                "size_warnings": ["no valid section of this shape meets the constraints"],
+            }
     values = dict(design.values) | geometry | props
     util = {}
     for d in derivations:
@@ -173,7 +183,9 @@ def _one_part(row, x, derivations, design, mid, i, constants) -> dict[str, objec
     governing = max(util, key=util.get)
     volume = float(case.volume.evaluate(values))
     mass = volume * props["rho"]
-    responses = {name: float(m.evaluate(values)) for name, m in case.responses.items() if m.symbols <= set(values)}
+    responses = {
+        name: float(m.evaluate(values)) for name, m in case.responses.items() if m.symbols <= set(values)
+    }
     warnings += _shape_warnings(design, dims, fn, str(row["family"]))
     wall = dims.get("t") or dims.get("tw")
     if wall is not None and wall < MIN_PRACTICAL_WALL:
@@ -199,7 +211,11 @@ def _one_part(row, x, derivations, design, mid, i, constants) -> dict[str, objec
 
 def _shape_warnings(design: Design, dims: dict[str, float], fn: str, family: str) -> list[str]:
     """Warn where the section is more efficient than the family can practically be made."""
-    if fn in ("cylinder", "sphere", "plate", "spring", "tie") or design.shape in ("generic", "rectangle", "round"):
+    if fn in ("cylinder", "sphere", "plate", "spring", "tie") or design.shape in (
+        "generic",
+        "rectangle",
+        "round",
+    ):
         return []
     from selector.mechanics.shape_limits import max_shape_factor
 
@@ -212,11 +228,10 @@ def _shape_warnings(design: Design, dims: dict[str, float], fn: str, family: str
 
 def _approximate(design: Design, fn: str) -> bool:
     """True where the closed-form size came from an approximate section model."""
-    if fn in ("cylinder", "sphere", "plate", "spring", "tie") or design.free == "scale":
-        return False
-    if design.free in ("depth", "width", "thickness") and design.shape in ("rectangle", "generic"):
-        return False
-    return True
+    exact = fn in ("cylinder", "sphere", "plate", "spring", "tie") or design.free == "scale"
+    return not (
+        exact or (design.free in ("depth", "width", "thickness") and design.shape in ("rectangle", "generic"))
+    )
 
 
 def _geometry_values(design: Design, dims: dict[str, float], fn: str) -> dict[str, float] | None:
