@@ -45,10 +45,14 @@ def run_spec(
     return select(spec, table, conservative=conservative, index=index)
 
 
-def run_demo(out_dir: Path):
-    """Run the bundled demo spec and write its files into ``out_dir``; returns (selection, paths)."""
+def run_demo(out_dir: Path, robust_draws: int | None = None):
+    """Run the bundled demo spec and write its files into ``out_dir``.
+
+    Writes ``shortlist.csv`` and the HTML report ``report.html``; returns (selection, paths).
+    """
     from selector import tables
     from selector.export import write_text_atomic
+    from selector.report import DEFAULT_REPORT_DRAWS, write_report
 
     spec_path = EXAMPLES / DEMO_SPEC
     selection = run_spec(spec_path)
@@ -60,4 +64,9 @@ def run_demo(out_dir: Path):
     csv_path = out_dir / "shortlist.csv"
     write_text_atomic(csv_path, tables.render_selection(selection, "csv", selection.spec.units) + "\n")
     written.append(csv_path)
+    report_path = out_dir / "report.html"
+    draws = DEFAULT_REPORT_DRAWS if robust_draws is None else robust_draws
+    spec_text = spec_path.read_text(encoding="utf-8")
+    write_report(selection, report_path, spec_text, spec_path.name, robust_draws=draws, protect=[spec_path])
+    written.append(report_path)
     return selection, written

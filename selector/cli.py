@@ -270,7 +270,9 @@ def chart(
 
 @cli.command()
 @click.argument("spec", type=click.Path())
-@click.option("--materials", "files", multiple=True, type=click.Path(), help="Add a materials file (repeatable).")
+@click.option(
+    "--materials", "files", multiple=True, type=click.Path(), help="Add a materials file (repeatable)."
+)
 @click.option("--no-builtin", is_flag=True, help="Use the given materials files alone.")
 @units_option
 @click.option(
@@ -283,7 +285,12 @@ def chart(
 )
 @click.option("--seed", type=click.IntRange(min=0), default=None, help="Random seed of the draws.")
 @click.option(
-    "-o", "--output", type=click.Path(), default="report.html", show_default=True, help="The report file (.html)."
+    "-o",
+    "--output",
+    type=click.Path(),
+    default="report.html",
+    show_default=True,
+    help="The report file (.html).",
 )
 def report(spec, files, no_builtin, units, draws, seed, output) -> None:
     """Write a self-contained HTML design report for a SPEC file (opens offline, prints cleanly)."""

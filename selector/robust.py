@@ -173,6 +173,15 @@ def _typical(low: np.ndarray, high: np.ndarray, log: bool) -> np.ndarray:
 def _model(selection) -> tuple[pd.DataFrame, tuple[str, ...], KeyFunction]:
     """Ranked candidates, the properties the ranking uses and a key (lower = better) of stored-unit values."""
     cand = selection.shortlist.reset_index(drop=True)
+    if not selection.sized and selection.expression is not None:
+        from selector.expressions import parse
+
+        expr = parse(selection.expression)
+
+        def expression_key(values: Mapping[str, np.ndarray]) -> np.ndarray:
+            return -np.asarray(expr.evaluate(values))
+
+        return cand, tuple(sorted(expr.symbols)), expression_key
     if not selection.sized:
         exponents = dict(selection.derivations[0].exponents)
         symbols = tuple(sorted(exponents))

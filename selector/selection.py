@@ -230,8 +230,9 @@ def select(
     alive = table["status"] != REJECTED
     sized = size_parts(table[alive], derivations, design)
     table = pd.concat([table, sized.reindex(table.index)], axis=1)
+    table["feasible"] = table["feasible"].eq(True)
     objective = spec.objective.minimize
-    table["objective"] = table[objective].where(table["feasible"].fillna(False).astype(bool), math.inf)
+    table["objective"] = table[objective].where(table["feasible"], math.inf)
     table = rank_by_value(table, "objective", "objective_low", "objective_high")
     return Selection(
         spec,

@@ -42,6 +42,21 @@ DEFAULT_DIMS: dict[str, dict[str, float]] = {
     "angle": {"b": 1.0, "h": 1.0, "t": 0.1},
     "tee": {"b": 1.0, "h": 1.0, "tf": 0.1, "tw": 0.08},
 }
+SIZED_COLUMNS = (
+    "feasible",
+    "dimensions",
+    "mass",
+    "cost",
+    "co2",
+    "volume",
+    "deflection",
+    "twist",
+    "stress",
+    "utilisation",
+    "governing",
+    "size_warnings",
+)
+"""Columns ``size_parts`` adds, present even when no class is sized."""
 FREE_DIMENSION = {"depth": "h", "width": "b", "thickness": "h", "wall": "t"}
 
 
@@ -114,7 +129,7 @@ def size_parts(table: pd.DataFrame, derivations: list[Derivation], design: Desig
         ]
     )
     rows = [_one_part(table.iloc[i], x[i], derivations, design, mid, i, constants) for i in range(len(table))]
-    frame = pd.DataFrame(rows, index=table.index)
+    frame = pd.DataFrame(rows, index=table.index).reindex(columns=SIZED_COLUMNS)
     for column, worst in (("objective_low", False), ("objective_high", True)):
         frame[column] = _governing(
             [_objective_at_end(table, d, design, constants, worst) for d in derivations]

@@ -255,7 +255,7 @@ def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -
         lf, mf = _LENGTH_FACTOR[units], _MASS_FACTOR[units]
         lu, mu = LENGTH_UNIT[units], MASS_UNIT[units]
         su, sf = _STRESS[units]
-        feasible = table["feasible"].fillna(False).astype(bool)
+        feasible = table["feasible"]
         out["dimensions"] = [
             {k: v * lf for k, v in d.items() if k != "V"} if isinstance(d, dict) else None
             for d in table["dimensions"]

@@ -1,0 +1,50 @@
+"""The pipeline end to end on edge cases a user can reach."""
+
+from __future__ import annotations
+
+import pytest
+
+from selector.robust import robustness
+from selector.selection import select
+from selector.spec import spec_from_dict
+
+from .conftest import make_table
+
+TABLE = make_table([
+    {"id": "stiff", "E": (200, 210), "rho": (7800, 7900)},
+    {"id": "light", "E": (10, 12), "rho": (400, 500), "family": "natural"},
+    {"id": "hot", "E": (70, 72), "rho": (2700, 2800), "T_max": (300, 400)},
+])
+
+
+def test_typed_index_without_constraints_ranks_and_is_robust():
+    spec = spec_from_dict({"title": "typed", "part": {"function": "beam"}, "index": "E/rho"})
+    selection = select(spec, TABLE)
+    # E/ρ by hand: stiff ≈ 205/7850 = 0.0261, light ≈ 11/450 = 0.0244, hot ≈ 71/2750 = 0.0258
+    assert selection.shortlist["id"].tolist() == ["stiff", "hot", "light"]
+    result = robustness(selection, draws=400, seed=1)
+    assert set(result.table["id"]) == {"stiff", "hot", "light"}
+    assert result.table["p_best"].sum() == pytest.approx(1.0)
+
+
+def test_screens_that_reject_everything_give_an_empty_shortlist():
+    spec = spec_from_dict({
+        "part": {"function": "beam", "support": "cantilever", "length": "1 m", "force": "100 N"},
+        "constraint": [{"type": "stiffness", "max_deflection": "1 mm"}],
+        "screen": {"T_max": ">= 5000 degC"},
+    })
+    selection = select(spec, TABLE)
+    assert selection.sized
+    assert selection.shortlist.empty
+    assert len(selection.rejected) == 3
+    assert all(r for r in selection.rejected["reasons"])
+
+
+def test_missing_loads_fall_back_to_index_ranking_with_a_note():
+    spec = spec_from_dict({
+        "part": {"function": "beam", "support": "cantilever", "length": "1 m"},
+        "constraint": [{"type": "stiffness", "max_deflection": "1 mm"}],
+    })
+    selection = select(spec, TABLE)
+    assert not selection.sized
+    assert any("force" in n for n in selection.notes)
