@@ -48,9 +48,11 @@ def run_spec(
 def run_demo(out_dir: Path, robust_draws: int | None = None):
     """Run the bundled demo spec and write its files into ``out_dir``.
 
-    Writes ``shortlist.csv`` and the HTML report ``report.html``; returns (selection, paths).
+    Writes ``shortlist.csv``, the property chart ``chart.html`` and the HTML report
+    ``report.html``; returns (selection, paths).
     """
     from selector import tables
+    from selector.charts import chart_for_selection, write_chart
     from selector.export import write_text_atomic
     from selector.report import DEFAULT_REPORT_DRAWS, write_report
 
@@ -64,6 +66,9 @@ def run_demo(out_dir: Path, robust_draws: int | None = None):
     csv_path = out_dir / "shortlist.csv"
     write_text_atomic(csv_path, tables.render_selection(selection, "csv", selection.spec.units) + "\n")
     written.append(csv_path)
+    chart_path = out_dir / "chart.html"
+    write_chart(chart_for_selection(selection), chart_path)
+    written.append(chart_path)
     report_path = out_dir / "report.html"
     draws = DEFAULT_REPORT_DRAWS if robust_draws is None else robust_draws
     spec_text = spec_path.read_text(encoding="utf-8")

@@ -165,7 +165,9 @@ def test_demo_writes_files(tmp_path):
     result = _main("demo", "--out", str(tmp_path / "demo"))
     assert result.returncode == 0, result.stderr
     assert "wrote" in result.stdout
-    assert (tmp_path / "demo" / "shortlist.csv").exists()
+    for name in ("shortlist.csv", "chart.html", "report.html"):
+        assert (tmp_path / "demo" / name).exists()
+        assert str(tmp_path / "demo" / name) in result.stdout
 
 
 def test_rank_tradeoff_and_penalty(run):
