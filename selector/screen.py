@@ -88,6 +88,42 @@ def parse_screens(screen: Mapping[str, Any], where: str = "screen") -> Screens:
     )
 
 
+def _range_of(table: pd.DataFrame, limit: Limit) -> tuple[np.ndarray, np.ndarray]:
+    """(low, high) of the screened property (rating levels as numbers) for every class."""
+    if limit.is_rating:
+        levels = table[limit.symbol].map({v: k for k, v in enumerate(RATING_LEVELS)}).to_numpy(dtype=float)
+        return levels, levels
+    prop = PROPERTIES[limit.symbol]
+    return table[prop.low].to_numpy(dtype=float), table[prop.high].to_numpy(dtype=float)
+
+
+def _outcome(low: np.ndarray, high: np.ndarray, limit: Limit) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """(missing, fails, partly) masks of one limit over property ranges."""
+    missing = np.isnan(low) | np.isnan(high)
+    slack = TOLERANCE * max(abs(limit.value), 1.0)
+    if limit.op == ">=":
+        v = limit.value - slack
+        fail, part = high < v, (low < v) & (high >= v)
+    else:
+        v = limit.value + slack
+        fail, part = low > v, (high > v) & (low <= v)
+    return missing, fail & ~missing, part & ~missing
+
+
+def _family_masks(table: pd.DataFrame, screens: Screens) -> list[tuple[np.ndarray, str]]:
+    """(rejected mask, reason template) of the family and id screens."""
+    family = table["family"].to_numpy()
+    masks = []
+    if screens.families:
+        among = ", ".join(screens.families)
+        masks.append((~np.isin(family, screens.families), f"family {{family}} is not among {among}"))
+    if screens.exclude_families:
+        masks.append((np.isin(family, screens.exclude_families), "family {family} is excluded"))
+    if screens.exclude:
+        masks.append((table["id"].isin(screens.exclude).to_numpy(), "excluded by id"))
+    return masks
+
+
 def apply_screens(table: pd.DataFrame, screens: Screens) -> pd.DataFrame:
     """A copy of ``table`` with ``status`` and ``reasons`` columns added."""
     n = len(table)
@@ -100,42 +136,19 @@ def apply_screens(table: pd.DataFrame, screens: Screens) -> pd.DataFrame:
             reasons[i].append(text_of(i))
 
     family = table["family"].to_numpy()
-    if screens.families:
-        out = ~np.isin(family, screens.families)
-        rejected |= out
-        note(out, lambda i: f"family {family[i]} is not among {', '.join(screens.families)}")
-    if screens.exclude_families:
-        out = np.isin(family, screens.exclude_families)
-        rejected |= out
-        note(out, lambda i: f"family {family[i]} is excluded")
-    if screens.exclude:
-        out = table["id"].isin(screens.exclude).to_numpy()
-        rejected |= out
-        note(out, lambda i: "excluded by id")
+    for mask, template in _family_masks(table, screens):
+        rejected |= mask
+        note(mask, lambda i, template=template: template.format(family=family[i]))
 
     for limit in screens.limits:
+        low, high = _range_of(table, limit)
         if limit.is_rating:
-            levels = table[limit.symbol].map({v: k for k, v in enumerate(RATING_LEVELS)})
-            low = high = levels.to_numpy(dtype=float)
             shown = table[limit.symbol].to_numpy()
             show = lambda i, shown=shown: str(shown[i])  # noqa: E731
         else:
-            prop = PROPERTIES[limit.symbol]
-            low = table[prop.low].to_numpy(dtype=float)
-            high = table[prop.high].to_numpy(dtype=float)
-            show = lambda i, lo=low, hi=high, u=prop.label: (  # noqa: E731
-                f"{format_number(lo[i])}–{format_number(hi[i])} {u}"
-            )
-        missing = np.isnan(low) | np.isnan(high)
-        slack = TOLERANCE * max(abs(limit.value), 1.0)
-        if limit.op == ">=":
-            v = limit.value - slack
-            fail, part = high < v, (low < v) & (high >= v)
-        else:
-            v = limit.value + slack
-            fail, part = low > v, (high > v) & (low <= v)
-        fail &= ~missing
-        part &= ~missing
+            unit = PROPERTIES[limit.symbol].label
+            show = lambda i, lo=low, hi=high, u=unit: f"{format_number(lo[i])}–{format_number(hi[i])} {u}"  # noqa: E731
+        missing, fail, part = _outcome(low, high, limit)
         rejected |= fail | missing
         partly |= part
         note(missing, lambda i, s=limit.symbol: f"no data for {s}")
@@ -155,35 +168,16 @@ def apply_screens(table: pd.DataFrame, screens: Screens) -> pd.DataFrame:
 def screen_mask(table: pd.DataFrame, screens: Screens) -> np.ndarray:
     """The ``status`` column ``apply_screens`` would give, without the reasons.
 
-    A vectorised path for very large tables: the same rules (family and id
-    exclusions, missing data rejects, the same slack on each limit) but no
-    per-class reason text, so no Python loop over classes.
+    A vectorised path for very large tables: the same rules, but no per-class
+    reason text, so no Python loop over classes.
     """
     n = len(table)
     rejected = np.zeros(n, dtype=bool)
     partly = np.zeros(n, dtype=bool)
-    if screens.families:
-        rejected |= ~np.isin(table["family"].to_numpy(), screens.families)
-    if screens.exclude_families:
-        rejected |= np.isin(table["family"].to_numpy(), screens.exclude_families)
-    if screens.exclude:
-        rejected |= table["id"].isin(screens.exclude).to_numpy()
+    for mask, _ in _family_masks(table, screens):
+        rejected |= mask
     for limit in screens.limits:
-        if limit.is_rating:
-            levels = table[limit.symbol].map({v: k for k, v in enumerate(RATING_LEVELS)})
-            low = high = levels.to_numpy(dtype=float)
-        else:
-            prop = PROPERTIES[limit.symbol]
-            low = table[prop.low].to_numpy(dtype=float)
-            high = table[prop.high].to_numpy(dtype=float)
-        missing = np.isnan(low) | np.isnan(high)
-        slack = TOLERANCE * max(abs(limit.value), 1.0)
-        if limit.op == ">=":
-            v = limit.value - slack
-            fail, part = high < v, (low < v) & (high >= v)
-        else:
-            v = limit.value + slack
-            fail, part = low > v, (high > v) & (low <= v)
+        missing, fail, part = _outcome(*_range_of(table, limit), limit)
         rejected |= fail | missing
-        partly |= part & ~missing
+        partly |= part
     return np.where(rejected, REJECTED, np.where(partly, PARTLY, PASSES))
