@@ -109,6 +109,22 @@ def design_of(spec: Spec, shape: str) -> Design:
             lim["theta"] = magnitude_in(c.max_twist, "radian", f"constraint[{i}].max_twist")
         limits[c.type] = lim
     fn = spec.part.function
+    if spec.section.free == "none":
+        if not dims:
+            raise InputError(
+                "section.free",
+                "'none' checks a given part, but no dimensions are given",
+                'the section\'s dimensions, e.g. d = "40 mm" and t = "2 mm"',
+            )
+        if fn == "panel":
+            dims = {"b": values.get("b", dims.get("b", 0.0)), "h": dims.get("t", dims.get("h", 0.0))}
+        return Design(values, limits, "rectangle" if fn == "panel" else shape, dims, "none")
+    if shape == "sandwich":
+        raise InputError(
+            "section.shape",
+            "sandwich sections are analysed by `selector section` but not sized",
+            "a solid or thin-walled shape: rectangle, round, tube, box, i-section, channel, angle, tee",
+        )
     if fn == "panel":
         shape = "rectangle"
         if "b" in values:
@@ -189,13 +205,17 @@ def select(
             "spec: constraint", "the spec has no [[constraint]] and no index", "at least one constraint table"
         )
     case = load_case(spec.part.function, spec.part.support, spec.part.load)
+    free = spec.section.free
+    # With every dimension fixed the part is only checked; the index shown is the one for
+    # the first free variable the load case allows (the shape scaled at fixed proportions).
+    derive_free = free if free != "none" else case.allowed_free[0]
     seen: set[str] = set()
     derivations = []
     for i, c in enumerate(spec.constraint):
         if c.type in seen:
             raise InputError(f"spec: constraint[{i}].type", f"{c.type!r} is given twice", "each type once")
         seen.add(c.type)
-        derivations.append(derive_for_case(case, c.type, spec.objective.minimize, spec.section.free))
+        derivations.append(derive_for_case(case, c.type, spec.objective.minimize, derive_free))
     screens = parse_screens(spec.screen)
     screened = apply_screens(materials.reset_index(drop=True), screens)
     if expression is not None:
@@ -214,6 +234,10 @@ def select(
     if expression is None:
         table["index_with_shape"] = index_with_shape(table, first)
     notes = list(case.notes)
+    if free == "none":
+        notes.append(
+            f"free = none: every part is checked as given; the index shown is for free = {derive_free}"
+        )
     shape = spec.section.shape
     if shape == "generic" and spec.section.free == "scale":
         notes.append(
@@ -231,6 +255,16 @@ def select(
     sized = size_parts(table[alive], derivations, design)
     table = pd.concat([table, sized.reindex(table.index)], axis=1)
     table["feasible"] = table["feasible"].eq(True)
+    unsized = alive & ~table["feasible"]
+    table.loc[unsized, "status"] = REJECTED
+    table.loc[unsized, "reasons"] = pd.Series(
+        [
+            [*r, *w]
+            for r, w in zip(table.loc[unsized, "reasons"], table.loc[unsized, "size_warnings"], strict=True)
+        ],
+        index=table.index[unsized],
+        dtype=object,
+    )
     objective = spec.objective.minimize
     table["objective"] = table[objective].where(table["feasible"], math.inf)
     table = rank_by_value(table, "objective", "objective_low", "objective_high")

@@ -42,6 +42,8 @@ DEFAULT_DIMS: dict[str, dict[str, float]] = {
     "angle": {"b": 1.0, "h": 1.0, "t": 0.1},
     "tee": {"b": 1.0, "h": 1.0, "tf": 0.1, "tw": 0.08},
 }
+CHECK_TOLERANCE = 1e-9
+"""Utilisation slack when checking a part whose dimensions are all fixed (free = none)."""
 SIZED_COLUMNS = (
     "feasible",
     "dimensions",
@@ -156,6 +158,8 @@ def _objective_at_end(
 
 def _dims_for(design: Design, x: float, fn: str) -> dict[str, float]:
     ref = dict(design.dims)
+    if design.free == "none":
+        return ref
     if fn in ("cylinder", "sphere", "plate"):
         return {"t": x}
     if fn == "spring":
@@ -177,13 +181,13 @@ def _one_part(row, x, derivations, design, mid, i, constants) -> dict[str, objec
             prop = PROPERTIES[s]
             props[s] = math.sqrt(row[prop.low] * row[prop.high]) * prop.si_factor
     warnings: list[str] = []
-    if not np.isfinite(x) or x <= 0:
+    if design.free != "none" and (not np.isfinite(x) or x <= 0):
         return {"feasible": False, "size_warnings": ["cannot be sized (missing property data)"]}
     dims = _dims_for(design, float(x), fn)
     geometry = _geometry_values(design, dims, fn)
     if geometry is None:
         return {"feasible": False, "size_warnings": ["no valid section of this shape meets the constraints"]}
-    if _approximate(design, fn):
+    if design.free != "none" and _approximate(design, fn):
         dims, geometry = _refine(design, dims, derivations, props, fn)
         if geometry is None:
             return {
@@ -196,6 +200,10 @@ def _one_part(row, x, derivations, design, mid, i, constants) -> dict[str, objec
         v = values | design.limits.get(d.constraint, {})
         util[d.constraint] = float(case.utilisation[d.constraint].evaluate(v))
     governing = max(util, key=util.get)
+    feasible = True
+    if design.free == "none" and util[governing] > 1 + CHECK_TOLERANCE:
+        feasible = False
+        warnings.append(f"the given part fails {governing} (utilisation {util[governing]:.2f})")
     volume = float(case.volume.evaluate(values))
     mass = volume * props["rho"]
     responses = {
@@ -209,7 +217,7 @@ def _one_part(row, x, derivations, design, mid, i, constants) -> dict[str, objec
     if wall and outer and outer / wall > THIN_WALL_RATIO:
         warnings.append(f"slender wall (ratio {outer / wall:.0f}): check local buckling")
     return {
-        "feasible": True,
+        "feasible": feasible,
         "dimensions": dims,
         "mass": mass,
         "cost": mass * props["price"],
@@ -297,7 +305,8 @@ def _refine(design, dims, derivations, props, fn):
 
 def design_constants(derivations: list[Derivation], design: Design) -> dict[str, float]:
     """Shape constants k_I, k_Z, k_J, k_Zt when the scale is free (none otherwise), as in ``size_parts``."""
-    if design.free == "scale" and derivations[0].case.function not in ("spring",):
+    uses_section = derivations[0].case.function not in ("spring", "cylinder", "sphere", "plate")
+    if uses_section and "k_I" in set().union(*(d.solution.symbols for d in derivations)):
         return shape_constants(design.shape, dict(design.dims))
     return {}
 

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import pytest
 
+from selector.errors import InputError
 from selector.robust import robustness
 from selector.selection import select
 from selector.spec import spec_from_dict
@@ -48,3 +49,30 @@ def test_missing_loads_fall_back_to_index_ranking_with_a_note():
     selection = select(spec, TABLE)
     assert not selection.sized
     assert any("force" in n for n in selection.notes)
+
+
+def test_free_none_checks_the_given_part():
+    # Cantilever 1 m, 100 N, rectangle 20 × 40 mm: I = 20·40³/12 = 106 667 mm⁴ (worked by hand).
+    # δ = F L³/(3 E I): "stiff" (E ≈ 205 GPa) 1.52 mm passes 2 mm; "hot" (E ≈ 71 GPa) 4.4 mm fails.
+    spec = spec_from_dict({
+        "part": {"function": "beam", "support": "cantilever", "length": "1 m", "force": "100 N"},
+        "section": {"shape": "rectangle", "free": "none", "b": "20 mm", "h": "40 mm"},
+        "constraint": [{"type": "stiffness", "max_deflection": "2 mm"}],
+    })
+    selection = select(spec, TABLE)
+    table = selection.table.set_index("id")
+    i = 0.02 * 0.04**3 / 12
+    assert table.loc["stiff", "deflection"] == pytest.approx(100 / (3 * (200 * 210) ** 0.5 * 1e9 * i))
+    assert table.loc["stiff", "status"] == "passes"
+    assert table.loc["hot", "status"] == "rejected"
+    assert any("fails stiffness" in r for r in table.loc["hot", "reasons"])
+
+
+def test_free_none_needs_dimensions():
+    spec = spec_from_dict({
+        "part": {"function": "beam", "length": "1 m", "force": "100 N"},
+        "section": {"shape": "tube", "free": "none"},
+        "constraint": [{"type": "stiffness", "max_deflection": "2 mm"}],
+    })
+    with pytest.raises(InputError, match="'none' checks a given part, but no dimensions are given"):
+        select(spec, TABLE)
