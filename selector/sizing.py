@@ -42,6 +42,8 @@ DEFAULT_DIMS: dict[str, dict[str, float]] = {
     "angle": {"b": 1.0, "h": 1.0, "t": 0.1},
     "tee": {"b": 1.0, "h": 1.0, "tf": 0.1, "tw": 0.08},
 }
+SHAPE_CONSTANTS = frozenset({"k_I", "k_Z", "k_J", "k_Zt"})
+"""Symbols of the section model with the scale free: I = k_I·A², Z = k_Z·A^1.5, J = k_J·A², Zt = k_Zt·A^1.5."""
 CHECK_TOLERANCE = 1e-9
 """Utilisation slack when checking a part whose dimensions are all fixed (free = none)."""
 SIZED_COLUMNS = (
@@ -94,7 +96,7 @@ def missing_inputs(derivations: list[Derivation], design: Design) -> list[str]:
     """Symbols the closed-form sizes need that the spec does not give."""
     need: set[str] = set()
     for d in derivations:
-        need |= set(d.solution.symbols) - set(PROPERTIES) - {"k_I", "k_Z", "k_J", "k_Zt"}
+        need |= set(d.solution.symbols) - set(PROPERTIES) - SHAPE_CONSTANTS
     have = set(design.values) | {k for lim in design.limits.values() for k in lim} | set(design.dims)
     return sorted(need - have)
 
@@ -306,7 +308,7 @@ def _refine(design, dims, derivations, props, fn):
 def design_constants(derivations: list[Derivation], design: Design) -> dict[str, float]:
     """Shape constants k_I, k_Z, k_J, k_Zt when the scale is free (none otherwise), as in ``size_parts``."""
     uses_section = derivations[0].case.function not in ("spring", "cylinder", "sphere", "plate")
-    if uses_section and "k_I" in set().union(*(d.solution.symbols for d in derivations)):
+    if uses_section and SHAPE_CONSTANTS & set().union(*(d.solution.symbols for d in derivations)):
         return shape_constants(design.shape, dict(design.dims))
     return {}
 
