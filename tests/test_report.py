@@ -361,7 +361,7 @@ def test_report_for_every_example(example, tmp_path):
 
 def test_demo_writes_the_report_and_the_shortlist(tmp_path):
     selection, written = run_demo(tmp_path / "demo", robust_draws=100)
-    assert [p.name for p in written] == ["shortlist.csv", "report.html"]
+    assert [p.name for p in written] == ["shortlist.csv", "chart.html", "report.html"]
     assert all(p.is_file() for p in written)
-    page = parse(written[1].read_text(encoding="utf-8"))
+    page = parse(written[2].read_text(encoding="utf-8"))
     assert page.text("report-title") == selection.spec.title
