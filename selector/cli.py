@@ -77,7 +77,11 @@ def materials_list(family, search, files, no_builtin, fmt, units) -> None:
     from selector.materials import load_materials
 
     table = load_materials(files, builtin=not no_builtin)
-    click.echo(tables.render(tables.materials_frame(table, family, search, units or "si"), fmt or "table"))
+    frame = tables.materials_frame(table, family, search, units or "si")
+    if (fmt or "table") in ("table", "md"):
+        chosen = table[table["id"].isin(frame["id"])]
+        frame = tables.materials_summary(chosen, units or "si")
+    click.echo(tables.render(frame, fmt or "table"))
 
 
 @materials.command("show")

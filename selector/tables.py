@@ -91,6 +91,15 @@ def materials_frame(
     return out.reset_index(drop=True)
 
 
+def materials_summary(table: pd.DataFrame, units: str = "si") -> pd.DataFrame:
+    """A narrow view for people: id, name, family and the ranges of a few key properties."""
+    out = table[["id", "name", "family"]].copy()
+    for symbol in SUMMARY_PROPERTIES:
+        low, high = property_values(table, symbol, units)
+        out[f"{symbol} [{property_unit(symbol, units)}]"] = [_range(lo, hi) for lo, hi in zip(low, high, strict=True)]
+    return out.reset_index(drop=True)
+
+
 def class_frame(table: pd.DataFrame, class_id: str, units: str = "si") -> pd.DataFrame:
     """One class as a property / low / high / unit table."""
     match = table[table["id"] == class_id]

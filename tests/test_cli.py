@@ -189,3 +189,22 @@ def test_rank_bad_exchange_is_one_line():
     result = _main("rank", str(EXAMPLES / "camera-dolly-boom.toml"), "--tradeoff", "cost", "--exchange", "10 MPa")
     assert result.returncode == 2
     assert result.stderr.startswith("error: --exchange:")
+
+
+def test_rank_imports_neither_plotly_nor_openpyxl():
+    code = (
+        "import sys\n"
+        f"sys.argv = ['selector', 'rank', {str(EXAMPLES / 'camera-dolly-boom.toml')!r}]\n"
+        "from selector.cli import main\n"
+        "try:\n    main()\nexcept SystemExit:\n    pass\n"
+        "heavy = [m for m in ('plotly', 'openpyxl', 'jinja2', 'dash') if m in sys.modules]\n"
+        "assert not heavy, heavy\n"
+    )
+    result = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=False)
+    assert result.returncode == 0, result.stderr
+
+
+def test_materials_list_table_is_narrow(run):
+    result = run("materials", "list", "--family", "foam")
+    header = result.output.splitlines()[0]
+    assert "E [GPa]" in header and "K_IC" not in header
