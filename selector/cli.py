@@ -304,6 +304,20 @@ def report(spec, files, no_builtin, units, draws, seed, output) -> None:
     click.echo(f"wrote {path}", err=True)
 
 
+@cli.command()
+@click.argument("spec", type=click.Path(), required=False)
+@click.option(
+    "--port", type=click.IntRange(0, 65535), default=8050, show_default=True,
+    help="Port on 127.0.0.1 (0: any free port).",
+)
+@click.option("--no-browser", is_flag=True, help="Do not open the default web browser.")
+def explore(spec, port, no_browser) -> None:
+    """Explore a SPEC in a local web page on 127.0.0.1 (a bundled example without SPEC)."""
+    from selector import explore as explorer
+
+    explorer.serve(spec, port, not no_browser, echo=click.echo)
+
+
 def main() -> None:
     """Entry point: turn user-input errors into one clear line and exit status 2."""
     from selector.errors import SelectorError
