@@ -31,7 +31,9 @@ def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--runs", type=int, default=7)
     runs = parser.parse_args().runs
-    subprocess.run([sys.executable, "-m", "selector", "rank", str(SPEC)], check=True, stdout=subprocess.DEVNULL)
+    subprocess.run(
+        [sys.executable, "-m", "selector", "rank", str(SPEC)], check=True, stdout=subprocess.DEVNULL
+    )
     baseline = _median_seconds([sys.executable, "-c", "import pandas"], runs)
     ranked = _median_seconds([sys.executable, "-m", "selector", "rank", str(SPEC)], runs)
     ratio = ranked / baseline

@@ -29,7 +29,7 @@ class Quantity(click.ParamType):
     def __init__(self, unit: str) -> None:
         self.unit = unit
 
-    def convert(self, value, param, ctx):  # noqa: ANN001
+    def convert(self, value, param, ctx):
         from selector.errors import UnitError
         from selector.units import magnitude_in
 
@@ -139,26 +139,50 @@ def derive(function, objective, constraint, free, support, load, fmt) -> None:
 
 @cli.command()
 @click.argument("spec", type=click.Path())
-@click.option("--materials", "files", multiple=True, type=click.Path(), help="Add a materials file (repeatable).")
+@click.option(
+    "--materials", "files", multiple=True, type=click.Path(), help="Add a materials file (repeatable)."
+)
 @click.option("--no-builtin", is_flag=True, help="Rank the given materials files alone.")
 @click.option("--conservative", is_flag=True, help="Rank by the unfavourable end of each range.")
 @click.option("--index", "expression", default=None, help='Rank by a typed index, e.g. "E^0.5/rho".')
 @click.option("--top", type=click.IntRange(min=1), default=None, help="Show the best N only.")
 @click.option("--all", "show_all", is_flag=True, help="Also list the rejected classes with reasons.")
-@click.option("--tradeoff", "other", default=None, help="Second objective for a Pareto front: mass|cost|co2|volume.")
+@click.option(
+    "--tradeoff", "other", default=None, help="Second objective for a Pareto front: mass|cost|co2|volume."
+)
 @click.option("--exchange", default=None, help='Value of the ranked objective saved, e.g. "40 USD/kg".')
-@click.option("--robust", "draws", type=click.IntRange(min=1), default=None, help="Monte Carlo draws over ranges.")
+@click.option(
+    "--robust", "draws", type=click.IntRange(min=1), default=None, help="Monte Carlo draws over ranges."
+)
 @click.option("--seed", type=int, default=None, help="Seed for --robust (a fixed default otherwise).")
 @click.option(
-    "--distribution", type=click.Choice(("log-uniform", "triangular", "log-normal")), default="log-uniform",
-    show_default=True, help="How --robust samples each property range.",
+    "--distribution",
+    type=click.Choice(("log-uniform", "triangular", "log-normal")),
+    default="log-uniform",
+    show_default=True,
+    help="How --robust samples each property range.",
 )
 @format_option
 @units_option
-@click.option("-o", "--output", type=click.Path(), default=None, help="Write to FILE (format from extension).")
+@click.option(
+    "-o", "--output", type=click.Path(), default=None, help="Write to FILE (format from extension)."
+)
 def rank(
-    spec, files, no_builtin, conservative, expression, top, show_all, other, exchange, draws, seed, distribution,
-    fmt, units, output,
+    spec,
+    files,
+    no_builtin,
+    conservative,
+    expression,
+    top,
+    show_all,
+    other,
+    exchange,
+    draws,
+    seed,
+    distribution,
+    fmt,
+    units,
+    output,
 ) -> None:
     """Screen, derive, size and rank the classes for a SPEC file.
 
@@ -168,7 +192,9 @@ def rank(
     from selector import tables
     from selector.api import run_spec
 
-    selection = run_spec(spec, files, no_builtin, conservative, expression, protect=[spec, *files], output=output)
+    selection = run_spec(
+        spec, files, no_builtin, conservative, expression, protect=[spec, *files], output=output
+    )
     fmt = fmt or tables.format_for(output)
     units = units or selection.spec.units
     if other is not None or draws is not None:
@@ -307,7 +333,10 @@ def report(spec, files, no_builtin, units, draws, seed, output) -> None:
 @cli.command()
 @click.argument("spec", type=click.Path(), required=False)
 @click.option(
-    "--port", type=click.IntRange(0, 65535), default=8050, show_default=True,
+    "--port",
+    type=click.IntRange(0, 65535),
+    default=8050,
+    show_default=True,
     help="Port on 127.0.0.1 (0: any free port).",
 )
 @click.option("--no-browser", is_flag=True, help="Do not open the default web browser.")

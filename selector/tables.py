@@ -96,7 +96,9 @@ def materials_summary(table: pd.DataFrame, units: str = "si") -> pd.DataFrame:
     out = table[["id", "name", "family"]].copy()
     for symbol in SUMMARY_PROPERTIES:
         low, high = property_values(table, symbol, units)
-        out[f"{symbol} [{property_unit(symbol, units)}]"] = [_range(lo, hi) for lo, hi in zip(low, high, strict=True)]
+        out[f"{symbol} [{property_unit(symbol, units)}]"] = [
+            _range(lo, hi) for lo, hi in zip(low, high, strict=True)
+        ]
     return out.reset_index(drop=True)
 
 

@@ -186,7 +186,9 @@ def test_rank_robust_is_deterministic(run):
 
 
 def test_rank_bad_exchange_is_one_line():
-    result = _main("rank", str(EXAMPLES / "camera-dolly-boom.toml"), "--tradeoff", "cost", "--exchange", "10 MPa")
+    result = _main(
+        "rank", str(EXAMPLES / "camera-dolly-boom.toml"), "--tradeoff", "cost", "--exchange", "10 MPa"
+    )
     assert result.returncode == 2
     assert result.stderr.startswith("error: --exchange:")
 

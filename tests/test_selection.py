@@ -11,11 +11,13 @@ from selector.spec import spec_from_dict
 
 from .conftest import make_table
 
-TABLE = make_table([
-    {"id": "stiff", "E": (200, 210), "rho": (7800, 7900)},
-    {"id": "light", "E": (10, 12), "rho": (400, 500), "family": "natural"},
-    {"id": "hot", "E": (70, 72), "rho": (2700, 2800), "T_max": (300, 400)},
-])
+TABLE = make_table(
+    [
+        {"id": "stiff", "E": (200, 210), "rho": (7800, 7900)},
+        {"id": "light", "E": (10, 12), "rho": (400, 500), "family": "natural"},
+        {"id": "hot", "E": (70, 72), "rho": (2700, 2800), "T_max": (300, 400)},
+    ]
+)
 
 
 def test_typed_index_without_constraints_ranks_and_is_robust():
@@ -29,11 +31,13 @@ def test_typed_index_without_constraints_ranks_and_is_robust():
 
 
 def test_screens_that_reject_everything_give_an_empty_shortlist():
-    spec = spec_from_dict({
-        "part": {"function": "beam", "support": "cantilever", "length": "1 m", "force": "100 N"},
-        "constraint": [{"type": "stiffness", "max_deflection": "1 mm"}],
-        "screen": {"T_max": ">= 5000 degC"},
-    })
+    spec = spec_from_dict(
+        {
+            "part": {"function": "beam", "support": "cantilever", "length": "1 m", "force": "100 N"},
+            "constraint": [{"type": "stiffness", "max_deflection": "1 mm"}],
+            "screen": {"T_max": ">= 5000 degC"},
+        }
+    )
     selection = select(spec, TABLE)
     assert selection.sized
     assert selection.shortlist.empty
@@ -42,10 +46,12 @@ def test_screens_that_reject_everything_give_an_empty_shortlist():
 
 
 def test_missing_loads_fall_back_to_index_ranking_with_a_note():
-    spec = spec_from_dict({
-        "part": {"function": "beam", "support": "cantilever", "length": "1 m"},
-        "constraint": [{"type": "stiffness", "max_deflection": "1 mm"}],
-    })
+    spec = spec_from_dict(
+        {
+            "part": {"function": "beam", "support": "cantilever", "length": "1 m"},
+            "constraint": [{"type": "stiffness", "max_deflection": "1 mm"}],
+        }
+    )
     selection = select(spec, TABLE)
     assert not selection.sized
     assert any("force" in n for n in selection.notes)
@@ -54,11 +60,13 @@ def test_missing_loads_fall_back_to_index_ranking_with_a_note():
 def test_free_none_checks_the_given_part():
     # Cantilever 1 m, 100 N, rectangle 20 × 40 mm: I = 20·40³/12 = 106 667 mm⁴ (worked by hand).
     # δ = F L³/(3 E I): "stiff" (E ≈ 205 GPa) 1.52 mm passes 2 mm; "hot" (E ≈ 71 GPa) 4.4 mm fails.
-    spec = spec_from_dict({
-        "part": {"function": "beam", "support": "cantilever", "length": "1 m", "force": "100 N"},
-        "section": {"shape": "rectangle", "free": "none", "b": "20 mm", "h": "40 mm"},
-        "constraint": [{"type": "stiffness", "max_deflection": "2 mm"}],
-    })
+    spec = spec_from_dict(
+        {
+            "part": {"function": "beam", "support": "cantilever", "length": "1 m", "force": "100 N"},
+            "section": {"shape": "rectangle", "free": "none", "b": "20 mm", "h": "40 mm"},
+            "constraint": [{"type": "stiffness", "max_deflection": "2 mm"}],
+        }
+    )
     selection = select(spec, TABLE)
     table = selection.table.set_index("id")
     i = 0.02 * 0.04**3 / 12
@@ -69,10 +77,12 @@ def test_free_none_checks_the_given_part():
 
 
 def test_free_none_needs_dimensions():
-    spec = spec_from_dict({
-        "part": {"function": "beam", "length": "1 m", "force": "100 N"},
-        "section": {"shape": "tube", "free": "none"},
-        "constraint": [{"type": "stiffness", "max_deflection": "2 mm"}],
-    })
+    spec = spec_from_dict(
+        {
+            "part": {"function": "beam", "length": "1 m", "force": "100 N"},
+            "section": {"shape": "tube", "free": "none"},
+            "constraint": [{"type": "stiffness", "max_deflection": "2 mm"}],
+        }
+    )
     with pytest.raises(InputError, match="'none' checks a given part, but no dimensions are given"):
         select(spec, TABLE)

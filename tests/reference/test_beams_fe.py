@@ -72,20 +72,34 @@ def test_peak_moment_matches_fe(support, load):
 
 # Effective-length factors K of the four ideal end conditions: 1, 2, 0.699, 0.5
 # (Timoshenko & Gere, Theory of Elastic Stability, 2nd ed., ch. 2 — from memory); n² = 1/K².
-@pytest.mark.parametrize(("support", "k"), [
-    ("pinned-pinned", 1.0), ("fixed-free", 2.0), ("fixed-pinned", 0.6992), ("fixed-fixed", 0.5),
-])
+@pytest.mark.parametrize(
+    ("support", "k"),
+    [
+        ("pinned-pinned", 1.0),
+        ("fixed-free", 2.0),
+        ("fixed-pinned", 0.6992),
+        ("fixed-fixed", 0.5),
+    ],
+)
 def test_euler_constants_match_effective_length_factors(support, k):
     assert EULER_N2[support] == pytest.approx(1 / k**2, rel=2e-3)
 
 
 def test_a_sized_cantilever_deflects_by_its_limit_in_fe():
     # End to end: size a tube cantilever for 4 mm, then load the sized tube in anastruct.
-    spec = spec_from_dict({
-        "part": {"function": "beam", "support": "cantilever", "load": "end", "length": "1.5 m", "force": "250 N"},
-        "section": {"shape": "tube", "free": "scale", "d": "40 mm", "t": "2 mm"},
-        "constraint": [{"type": "stiffness", "max_deflection": "4 mm"}],
-    })
+    spec = spec_from_dict(
+        {
+            "part": {
+                "function": "beam",
+                "support": "cantilever",
+                "load": "end",
+                "length": "1.5 m",
+                "force": "250 N",
+            },
+            "section": {"shape": "tube", "free": "scale", "d": "40 mm", "t": "2 mm"},
+            "constraint": [{"type": "stiffness", "max_deflection": "4 mm"}],
+        }
+    )
     table = make_table([{"id": "al", "E": (70, 70), "rho": (2700, 2700)}])
     row = select(spec, table).shortlist.iloc[0]
     d, t = row["dimensions"]["d"], row["dimensions"]["t"]
