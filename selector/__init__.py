@@ -22,6 +22,13 @@ _EXPORTS = {
     "select": "selector.selection",
     "Selection": "selector.selection",
     "parse_expression": "selector.expressions",
+    "robustness": "selector.robust",
+    "pareto_front": "selector.tradeoff",
+    "tradeoff_report": "selector.tradeoff",
+    "property_chart": "selector.charts",
+    "chart_for_selection": "selector.charts",
+    "write_chart": "selector.charts",
+    "write_report": "selector.report",
     "SelectorError": "selector.errors",
 }
 __all__ = ["__version__", *_EXPORTS]
