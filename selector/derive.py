@@ -89,11 +89,13 @@ def geometry(case: LoadCase, free: str) -> Geometry:
             "A",
             {
                 "I": M.of(1, k_I=1, A=2),
+                "Imin": M.of(1, k_Imin=1, A=2),
                 "Z": M.of(1, k_Z=1, A=1.5),
                 "J": M.of(1, k_J=1, A=2),
                 "Zt": M.of(1, k_Zt=1, A=1.5),
             },
-            "the section keeps its proportions and scales with its area A: I = k_I·A², Z = k_Z·A^(3/2), "
+            "the section keeps its proportions and scales with its area A: I = k_I·A² (I_min = k_Imin·A²), "
+            "Z = k_Z·A^(3/2), "
             "J = k_J·A², Z_t = k_Zt·A^(3/2) (k_I = φ_B/12 for bending-stiffness shape factor φ_B)",
         )
     if free in ("depth", "thickness"):
@@ -124,6 +126,7 @@ def geometry(case: LoadCase, free: str) -> Geometry:
         {
             "A": M.of(pi, d=1, t=1),
             "I": M.of(pi / 8, d=3, t=1),
+            "Imin": M.of(pi / 8, d=3, t=1),
             "Z": M.of(pi / 4, d=2, t=1),
             "J": M.of(pi / 4, d=3, t=1),
             "Zt": M.of(pi / 2, d=2, t=1),

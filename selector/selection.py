@@ -90,55 +90,138 @@ class Selection:
         return self.table[self.table["rank"].isna()].reset_index(drop=True)
 
 
+SECTION_FUNCTIONS = ("tie", "beam", "column", "shaft")
+"""Functions sized through a cross-section shape; the others size a wall, a plate or a volume."""
+SIZABLE_SHAPES = ("generic", "rectangle", "round", "tube", "box", "i-section", "channel", "angle", "tee")
+
+
+def _positive(value: float, where: str, text: str) -> float:
+    if not (math.isfinite(value) and value > 0):
+        raise InputError(where, f"{text!r} must be a finite value above zero", "a positive quantity")
+    return value
+
+
+def _limits(spec: Spec) -> dict[str, dict[str, float]]:
+    """Per constraint type: the allowed deflection or twist [m, rad] and the safety factor."""
+    from selector.units import magnitude_in
+
+    twist_case = spec.part.function == "shaft"
+    limits: dict[str, dict[str, float]] = {}
+    for i, c in enumerate(spec.constraint):
+        where = f"constraint[{i}]"
+        _positive(c.safety_factor, f"{where}.safety_factor", str(c.safety_factor))
+        lim = {"SF": c.safety_factor}
+        allowed = ("max_twist" if twist_case else "max_deflection") if c.type == "stiffness" else None
+        for key in ("max_deflection", "max_twist"):
+            if getattr(c, key) is not None and key != allowed:
+                raise InputError(
+                    f"{where}.{key}",
+                    f"{key} does not apply to the {c.type} constraint of a {spec.part.function}",
+                    f"{allowed} instead" if allowed else "no deflection or twist limit on this constraint",
+                )
+        if c.max_deflection is not None:
+            lim["delta"] = _positive(
+                magnitude_in(c.max_deflection, "m", f"{where}.max_deflection"),
+                f"{where}.max_deflection",
+                c.max_deflection,
+            )
+        if c.max_twist is not None:
+            lim["theta"] = _positive(
+                magnitude_in(c.max_twist, "radian", f"{where}.max_twist"), f"{where}.max_twist", c.max_twist
+            )
+        limits[c.type] = lim
+    return limits
+
+
+def _check_section(fn: str, shape: str, free: str) -> None:
+    """Refuse shape and free-variable pairs the sizing cannot honour."""
+    if fn not in SECTION_FUNCTIONS or (free == "none" and shape == "generic"):
+        return
+    if shape not in SIZABLE_SHAPES:
+        raise InputError(
+            "section.shape",
+            f"{shape!r} sections are analysed by `selector section` but not sized",
+            f"one of: {', '.join(SIZABLE_SHAPES)}",
+        )
+    if shape == "angle" and fn == "beam":
+        raise InputError(
+            "section.shape",
+            "an angle bends about inclined principal axes, so its deflection is not F·L³/(C·E·Ixx)",
+            "a section with Ixy = 0 (rectangle, round, tube, box, i-section, channel, tee)",
+        )
+    if free in ("depth", "width") and shape not in ("generic", "rectangle"):
+        raise InputError(
+            "section.free",
+            f"free = {free!r} is sized for a rectangle, not a {shape}",
+            'shape = "rectangle", or free = "scale" for other shapes',
+        )
+    if free == "wall" and shape != "tube":
+        raise InputError(
+            "section.free",
+            f"free = 'wall' is sized for a tube, not a {shape}",
+            'shape = "tube", or free = "scale" for other shapes',
+        )
+
+
 def design_of(spec: Spec, shape: str) -> Design:
-    """Loads, limits and reference section dimensions of a spec, in SI."""
+    """Loads, limits and section dimensions of a spec, in SI; refuses what cannot be sized."""
     from selector.units import magnitude_in
 
     values: dict[str, float] = {}
     for name, unit in QUANTITY_FIELDS.items():
         text = getattr(spec.part, name)
         if text is not None:
-            values[SYMBOL_OF_FIELD[name]] = magnitude_in(text, unit, f"part.{name}")
-    dims = {k: magnitude_in(v, "m", f"section.{k}") for k, v in spec.section.dims.items()}
-    limits: dict[str, dict[str, float]] = {}
-    for i, c in enumerate(spec.constraint):
-        lim = {"SF": c.safety_factor}
-        if c.max_deflection is not None:
-            lim["delta"] = magnitude_in(c.max_deflection, "m", f"constraint[{i}].max_deflection")
-        if c.max_twist is not None:
-            lim["theta"] = magnitude_in(c.max_twist, "radian", f"constraint[{i}].max_twist")
-        limits[c.type] = lim
-    fn = spec.part.function
-    if spec.section.free == "none":
-        if not dims:
-            raise InputError(
-                "section.free",
-                "'none' checks a given part, but no dimensions are given",
-                'the section\'s dimensions, e.g. d = "40 mm" and t = "2 mm"',
-            )
-        if fn == "panel":
-            dims = {"b": values.get("b", dims.get("b", 0.0)), "h": dims.get("t", dims.get("h", 0.0))}
-        return Design(values, limits, "rectangle" if fn == "panel" else shape, dims, "none")
-    if shape == "sandwich":
-        raise InputError(
-            "section.shape",
-            "sandwich sections are analysed by `selector section` but not sized",
-            "a solid or thin-walled shape: rectangle, round, tube, box, i-section, channel, angle, tee",
-        )
+            where = f"part.{name}"
+            values[SYMBOL_OF_FIELD[name]] = _positive(magnitude_in(text, unit, where), where, text)
+    dims = {
+        k: _positive(magnitude_in(v, "m", f"section.{k}"), f"section.{k}", v)
+        for k, v in spec.section.dims.items()
+    }
+    limits = _limits(spec)
+    fn, free = spec.part.function, spec.section.free
+    _check_section(fn, shape, free)
     if fn == "panel":
         shape = "rectangle"
-        if "b" in values:
-            dims.setdefault("b", values["b"])
-        dims.setdefault("h", dims.pop("t", dims.get("b", 1.0) / 20))
-    elif fn not in ("cylinder", "sphere", "plate", "spring"):
-        if spec.section.free == "scale" and not dims:
+        width = values.get("b", dims.get("b"))
+        dims = {"b": width} if width else {}
+        if "t" in spec.section.dims:
+            dims["h"] = magnitude_in(spec.section.t, "m", "section.t")
+    elif fn in ("cylinder", "sphere", "plate", "spring"):
+        if free == "none" and fn == "spring":
+            raise InputError(
+                "section.free",
+                "a spring is sized by its volume; 'none' has nothing to check",
+                'free = "scale"',
+            )
+        dims = {"t": dims["t"]} if "t" in dims else {}
+    elif shape == "generic" and free in ("depth", "width"):
+        shape = "rectangle"
+    if fn in SECTION_FUNCTIONS:
+        if free == "scale" and not dims:
             dims = dict(DEFAULT_DIMS.get(shape, {}))
-        elif spec.section.free in ("depth", "width", "wall"):
-            base = dict(DEFAULT_DIMS.get(shape, {}))
-            if "b" in values and "b" not in dims:
-                dims["b"] = values["b"]
-            dims = base | dims if dims else base
-    return Design(values, limits, shape, dims, spec.section.free)
+        if free == "depth" and "b" not in dims and "b" in values:
+            dims["b"] = values["b"]
+    if free == "none":
+        needed = {"panel": ("b", "h"), "cylinder": ("t",), "sphere": ("t",), "plate": ("t",)}.get(fn)
+        given = set(dims)
+        if needed is None:
+            from selector.sizing import build
+
+            if not dims:
+                raise InputError(
+                    "section.free",
+                    "'none' checks a given part, but no dimensions are given",
+                    'the section\'s dimensions, e.g. d = "40 mm" and t = "2 mm"',
+                )
+            build(shape, dims)  # raises InputError naming a missing or inconsistent dimension
+        elif not set(needed) <= given:
+            names = ", ".join("width" if n == "b" else "t" for n in needed if n not in given)
+            raise InputError(
+                "section.free",
+                f"'none' checks a given part, but {names} is not given",
+                "every dimension of the part",
+            )
+    return Design(values, limits, shape, dims, free)
 
 
 SHAPE_CONSTANT = {"k_I": ("bending_stiffness", 12.0), "k_Z": ("bending_strength", 6.0)}

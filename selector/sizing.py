@@ -42,8 +42,8 @@ DEFAULT_DIMS: dict[str, dict[str, float]] = {
     "angle": {"b": 1.0, "h": 1.0, "t": 0.1},
     "tee": {"b": 1.0, "h": 1.0, "tf": 0.1, "tw": 0.08},
 }
-SHAPE_CONSTANTS = frozenset({"k_I", "k_Z", "k_J", "k_Zt"})
-"""Section-model symbols with the scale free: I = k_I·A², Z = k_Z·A^1.5, J = k_J·A², Zt = k_Zt·A^1.5."""
+SHAPE_CONSTANTS = frozenset({"k_I", "k_Imin", "k_Z", "k_J", "k_Zt"})
+"""Section-model symbols with the scale free: I = k_I·A² (I_min = k_Imin·A²), Z = k_Z·A^1.5, J = k_J·A², ..."""
 CHECK_TOLERANCE = 1e-9
 """Utilisation slack when checking a part whose dimensions are all fixed (free = none)."""
 SIZED_COLUMNS = (
@@ -66,14 +66,19 @@ FREE_DIMENSION = {"depth": "h", "width": "b", "thickness": "h", "wall": "t"}
 
 def section_quantities(section: sec.Section) -> dict[str, float]:
     """The section quantities the load cases use: A, I, Z, J, Zt [SI]."""
-    return {"A": section.A, "I": section.Ixx, "Z": section.Zx, "J": section.J, "Zt": section.Zt}
+    return {
+        "A": section.A, "I": section.Ixx, "Imin": section.I22, "Z": section.Zx, "J": section.J, "Zt": section.Zt,
+    }
 
 
 def shape_constants(shape: str, dims: Mapping[str, float]) -> dict[str, float]:
     """k_I = I/A², k_Z = Z/A^1.5, k_J = J/A², k_Zt = Zt/A^1.5 of a shape at these proportions."""
     q = section_quantities(build(shape, dims))
     a = q["A"]
-    return {"k_I": q["I"] / a**2, "k_Z": q["Z"] / a**1.5, "k_J": q["J"] / a**2, "k_Zt": q["Zt"] / a**1.5}
+    return {
+        "k_I": q["I"] / a**2, "k_Imin": q["Imin"] / a**2, "k_Z": q["Z"] / a**1.5,
+        "k_J": q["J"] / a**2, "k_Zt": q["Zt"] / a**1.5,
+    }
 
 
 def build(shape: str, dims: Mapping[str, float]) -> sec.Section:

@@ -86,3 +86,69 @@ def test_free_none_needs_dimensions():
     )
     with pytest.raises(InputError, match="'none' checks a given part, but no dimensions are given"):
         select(spec, TABLE)
+
+
+@pytest.mark.parametrize(
+    ("part", "section", "constraint", "message"),
+    [
+        (
+            {},
+            {},
+            {"type": "stiffness", "max_deflection": "0 mm"},
+            "constraint[0].max_deflection: '0 mm' must be a finite value above zero",
+        ),
+        (
+            {"force": "-100 N"},
+            {},
+            {"type": "strength"},
+            "part.force: '-100 N' must be a finite value above zero",
+        ),
+        (
+            {},
+            {"shape": "tube", "free": "depth"},
+            {"type": "strength"},
+            "section.free: free = 'depth' is sized for a rectangle, not a tube",
+        ),
+        (
+            {},
+            {"shape": "box", "free": "wall"},
+            {"type": "strength"},
+            "section.free: free = 'wall' is sized for a tube, not a box",
+        ),
+        (
+            {},
+            {"shape": "angle"},
+            {"type": "strength"},
+            "section.shape: an angle bends about inclined principal axes",
+        ),
+        (
+            {},
+            {"shape": "sandwich"},
+            {"type": "strength"},
+            "section.shape: 'sandwich' sections are analysed by `selector section` but not sized",
+        ),
+        (
+            {},
+            {},
+            {"type": "stiffness", "max_twist": "1 deg"},
+            "constraint[0].max_twist: max_twist does not apply to the stiffness constraint of a beam",
+        ),
+        (
+            {},
+            {"shape": "tube", "free": "none", "d": "40 mm"},
+            {"type": "strength"},
+            "section tube: t: no value given",
+        ),
+    ],
+)
+def test_specs_that_cannot_be_sized_are_refused_clearly(part, section, constraint, message):
+    spec = spec_from_dict(
+        {
+            "part": {"function": "beam", "length": "1 m", "force": "100 N", **part},
+            "section": section,
+            "constraint": [constraint],
+        }
+    )
+    with pytest.raises(InputError) as err:
+        select(spec, TABLE)
+    assert str(err.value).startswith(message)

@@ -136,3 +136,22 @@ def test_tube_wall_free_uses_the_exact_section():
     exact_i = math.pi / 64 * (d**4 - (d - 2 * t) ** 4)  # common practice, no source
     assert 100 / (3 * 70e9 * exact_i) == pytest.approx(0.005, rel=1e-6)
     assert row["utilisation"]["stiffness"] == pytest.approx(1.0, rel=1e-6)
+
+
+def test_column_buckles_about_its_weak_axis_worked_by_hand():
+    # Pinned-pinned column, L = 2 m, F = 1 kN, SF = 2, E = 70 GPa, rectangle b:h = 1:2 (b the thin side).
+    # Euler: SF·F = π²·E·I_min/L² with I_min = h·b³/12 = 2b·b³/12 = b⁴/6
+    # → b⁴ = 6·SF·F·L²/(π²·E) = 6·2·1000·4/(π²·70e9) = 6.948e-8 → b = 16.24 mm, h = 32.47 mm.
+    spec = spec_from_dict(
+        {
+            "part": {"function": "column", "support": "pinned-pinned", "length": "2 m", "force": "1 kN"},
+            "section": {"shape": "rectangle", "free": "scale", "b": "10 mm", "h": "20 mm"},
+            "constraint": [{"type": "buckling", "safety_factor": 2.0}],
+        }
+    )
+    row = select(spec, make_table([ALUMINIUM_LIKE])).shortlist.iloc[0]
+    b = (6 * 2 * 1000 * 4 / (math.pi**2 * 70e9)) ** 0.25
+    assert b == pytest.approx(0.01624, rel=1e-3)
+    assert row["dimensions"]["b"] == pytest.approx(b, rel=1e-9)
+    assert row["dimensions"]["h"] == pytest.approx(2 * b, rel=1e-9)
+    assert row["utilisation"]["buckling"] == pytest.approx(1.0, rel=1e-9)

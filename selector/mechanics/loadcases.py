@@ -8,7 +8,7 @@ is a few lines here; the derivation of its merit index is done by ``derive``.
 Symbols (SI): F force [N], L length or span [m], T torque [N·m], p pressure [Pa],
 U stored energy [J], b width [m], r radius [m], delta allowed deflection [m],
 theta allowed twist [rad], SF safety factor [-]; section: A area [m²],
-I second moment [m⁴], Z elastic section modulus [m³], J torsion constant [m⁴],
+I second moment about the bending axis and Imin the least principal one [m⁴], Z elastic section modulus [m³], J torsion constant [m⁴],
 Zt torsional section modulus [m³]; t wall or plate thickness [m], V volume [m³];
 properties: E, G, sigma_y, sigma_c [Pa], rho [kg/m³].
 """
@@ -160,22 +160,22 @@ def _column(support: str) -> LoadCase:
         function="column",
         title=f"column, {support}",
         utilisation={
-            "buckling": M.of(1 / (n2 * math.pi**2), F=1, SF=1, L=2, E=-1, I=-1),
+            "buckling": M.of(1 / (n2 * math.pi**2), F=1, SF=1, L=2, E=-1, Imin=-1),
             "strength": M.of(1, F=1, SF=1, A=-1, sigma_c=-1),
             "stiffness": M.of(1, F=1, L=1, A=-1, E=-1, delta=-1),
         },
         responses={
             "deflection": M.of(1, F=1, L=1, A=-1, E=-1),
             "stress": M.of(1, F=1, A=-1),
-            "buckling_load": M.of(n2 * math.pi**2, E=1, I=1, L=-2),
+            "buckling_load": M.of(n2 * math.pi**2, E=1, Imin=1, L=-2),
         },
         equations={
-            "buckling": f"Euler load F_cr = n²·π²·E·I/L² ≥ SF·F, n² = {n2:g}",
+            "buckling": f"Euler load F_cr = n²·π²·E·I_min/L² ≥ SF·F (least principal I), n² = {n2:g}",
             "strength": "crushing stress σ = F/A ≤ σ_c/SF",
             "stiffness": "shortening δ = F·L/(A·E) ≤ δ_max",
         },
         volume=M.of(1, A=1, L=1),
-        allowed_free=("scale", "wall", "depth", "width"),
+        allowed_free=("scale", "wall"),
     )
 
 
