@@ -192,7 +192,7 @@ def xlsx_bytes(selection: Any, units: str = "si") -> bytes:
         ],
         ("reasons",),
     )
-    if selection.sized:
+    if selection.has_sizes:
         after = list(short.columns[short.columns.get_loc("close_to_leader") + 1 :])
         keep = ["rank", "id", "name", *(c for c in after if c != "reasons")]
         parts = short[keep]

@@ -75,6 +75,11 @@ def rank_by_index(
     return _rank(out, -key)
 
 
+def rerank_by_index(table: pd.DataFrame, conservative: bool = False) -> pd.DataFrame:
+    """Rank again by the index columns already in ``table`` (after more classes were rejected)."""
+    return _rank(table.copy(), -(table["index_low"] if conservative else table["index"]))
+
+
 def _rank(out: pd.DataFrame, key: pd.Series) -> pd.DataFrame:
     """Rank the non-rejected rows by ascending ``key``; flag overlaps with the leader."""
     alive = out["status"] != REJECTED

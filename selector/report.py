@@ -180,7 +180,7 @@ def shortlist_rows(selection: Any, units: str) -> tuple[dict[str, Any], list[dic
             "index_range": f"{_number(r[low_col])}–{_number(r[high_col])}",
             "reasons": list(r["reasons"]),
         }
-        if selection.sized:
+        if selection.has_sizes:
             dims = r["dimensions"] if isinstance(r["dimensions"], dict) else {}
             row["size"] = [f"{k} = {_number(v)}" for k, v in dims.items()]
             row["values"] = [_number(r[c]) for c in value_cols]
@@ -284,11 +284,11 @@ def _robust_view(selection: Any, draws: int, seed: int | None) -> dict[str, Any]
 
 def _tradeoff_view(selection: Any) -> dict[str, Any]:
     """The Pareto front of the ranked objective against a second one, with its chart."""
-    if not selection.sized:
+    if not selection.has_sizes:
         return {"note": "parts are not sized (the spec gives no loads), so there is no trade-off to draw"}
     from selector.tradeoff import tradeoff_report
 
-    first = selection.ranked_by
+    first = selection.spec.objective.minimize
     other = "cost" if first != "cost" else "mass"
     try:
         front, ranges = tradeoff_report(selection, other=other)
@@ -459,7 +459,8 @@ def report_context(
         "derivations": [_derivation_view(d) for d in selection.derivations],
         "typed_index": formula_html(selection.expression) if selection.expression else None,
         "screens": _screens_view(selection),
-        "sized": selection.sized,
+        "sized": selection.has_sizes,
+        "ranked_by_value": selection.sized,
         "ranked_by": selection.ranked_by,
         "header": header,
         "rows": rows,

@@ -200,7 +200,13 @@ def _model(selection) -> tuple[pd.DataFrame, tuple[str, ...], KeyFunction]:
 
     derivations = list(selection.derivations)
     design = design_of(selection.spec, selection.spec.section.shape)
-    used = set().union(*(d.objective_value.symbols for d in derivations)) & set(PROPERTIES)
+    if design.free == "none":
+        # A given part: only the material factor of the objective varies (feasibility is not re-drawn).
+        from selector.derive import OBJECTIVE_FACTORS
+
+        used = set(OBJECTIVE_FACTORS[selection.spec.objective.minimize].symbols)
+    else:
+        used = set().union(*(d.objective_value.symbols for d in derivations)) & set(PROPERTIES)
     symbols = tuple(sorted(used))
     factors = {s: PROPERTIES[s].si_factor for s in symbols}
     # The closed-form objective can differ from the exactly sized part (thin-wall

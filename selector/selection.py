@@ -12,7 +12,7 @@ from selector.derive import OBJECTIVE_UNITS, Derivation, derive_for_case
 from selector.errors import InputError
 from selector.mechanics.loadcases import load_case
 from selector.properties import PROPERTIES
-from selector.rank import monomial_index, rank_by_index, rank_by_value
+from selector.rank import monomial_index, rank_by_index, rank_by_value, rerank_by_index
 from selector.screen import REJECTED, Screens, apply_screens, parse_screens
 from selector.sizing import DEFAULT_DIMS, Design, missing_inputs, size_parts
 from selector.spec import DIMENSION_FIELDS, QUANTITY_FIELDS, Spec
@@ -47,7 +47,8 @@ class Selection:
         screens: the parsed screens.
         derivations: one per constraint, the first ranks when no loads are given.
         table: every class with status, reasons, index columns, rank and (when sized) the part.
-        ranked_by: "index" or the objective (mass, cost, co2, volume).
+        ranked_by: "index" or the objective (mass, cost, co2, volume) of the sized part.
+        has_sizes: the table holds sized parts (the spec gave loads), whatever ranks them.
         objective_unit: unit of the objective columns when sized.
         notes: assumptions and warnings worth showing.
     """
@@ -60,6 +61,7 @@ class Selection:
     objective_unit: str = ""
     notes: tuple[str, ...] = field(default=())
     expression: str | None = None
+    has_sizes: bool = False
     caution: str = CAUTION
 
     @property
@@ -224,15 +226,16 @@ def design_of(spec: Spec, shape: str) -> Design:
     return Design(values, limits, shape, dims, free)
 
 
-SHAPE_CONSTANT = {"k_I": ("bending_stiffness", 12.0), "k_Z": ("bending_strength", 6.0)}
-"""Shape constant → (shape-limit mode, c) with k = φ/c: I = (φ_B/12)·A², Z = (φ_f/6)·A^1.5."""
+SHAPE_CONSTANT = {"k_I": "bending_stiffness", "k_Imin": "bending_stiffness", "k_Z": "bending_strength"}
+"""Shape constant → the shape-limit mode it scales with (k_I = φ_B/12, k_Z = φ_f/6; φ = 1 for a solid square)."""
 
 
 def index_with_shape(table: pd.DataFrame, derivation: Derivation) -> np.ndarray:
     """The merit index with each family's largest practical shape factor built in.
 
-    For a light stiff beam this is (φ_max·E)^(1/2)/ρ; NaN where the index does not depend
-    on a bending shape factor (ties, vessels, springs, one dimension free).
+    For a light stiff beam this is (φ_max·E)^(1/2)/ρ, equal to the plain index for a solid
+    square (φ = 1); NaN where the index does not depend on a bending shape factor (ties,
+    vessels, springs, one dimension free).
     """
     from selector.mechanics.shape_limits import max_shape_factor
 
@@ -244,9 +247,9 @@ def index_with_shape(table: pd.DataFrame, derivation: Derivation) -> np.ndarray:
         return np.full(len(table), np.nan)
     factor = np.ones(len(table))
     for k in used:
-        mode, c = SHAPE_CONSTANT[k]
+        mode = SHAPE_CONSTANT[k]
         phi = table["family"].map(lambda f, mode=mode: max_shape_factor(f, mode)).to_numpy(dtype=float)
-        factor *= (phi / c) ** (-float(powers[k]) / float(scale))
+        factor *= phi ** (-float(powers[k]) / float(scale))
     return table["index"].to_numpy(dtype=float) * factor
 
 
@@ -350,16 +353,24 @@ def select(
     )
     objective = spec.objective.minimize
     table["objective"] = table[objective].where(table["feasible"], math.inf)
-    table = rank_by_value(table, "objective", "objective_low", "objective_high")
+    if expression is not None:
+        notes.append(f"ranked by the typed index {expression}; the parts are sized for the spec's loads")
+        table = rerank_by_index(table, conservative)
+        ranked_by = "index"
+    else:
+        key = "objective_high" if conservative else "objective"
+        table = rank_by_value(table, key, "objective_low", "objective_high")
+        ranked_by = objective
     return Selection(
         spec,
         screens,
         tuple(derivations),
         table,
-        objective,
+        ranked_by,
         OBJECTIVE_UNITS[objective],
         tuple(notes),
         expression,
+        has_sizes=True,
     )
 
 

@@ -262,7 +262,7 @@ def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -
         out.insert(
             out.columns.get_loc("close_to_leader"), f"index_with_shape [{unit}]", table["index_with_shape"]
         )
-    if selection.sized:
+    if selection.has_sizes:
         lf, mf = _LENGTH_FACTOR[units], _MASS_FACTOR[units]
         lu, mu = LENGTH_UNIT[units], MASS_UNIT[units]
         su, sf = _STRESS[units]

@@ -344,8 +344,8 @@ def tradeoff_report(
         penalty ranking of all ranked candidates (with ``on_front``), otherwise
         the exchange-constant range of each front member.
     """
-    first = selection.ranked_by
-    if not selection.sized:
+    first = selection.spec.objective.minimize
+    if not selection.has_sizes:
         raise InputError(
             "--tradeoff",
             "parts are not sized (the spec gives no loads), so they have no mass or cost",

@@ -152,3 +152,17 @@ def test_specs_that_cannot_be_sized_are_refused_clearly(part, section, constrain
     with pytest.raises(InputError) as err:
         select(spec, TABLE)
     assert str(err.value).startswith(message)
+
+
+def test_index_with_shape_multiplies_by_the_shape_limit():
+    # Light stiff beam: (φ_max·E)^½/ρ = √φ_max · E^½/ρ; metal φ_max = 44 and natural 5 (Weaver & Ashby
+    # 1997, from memory, as in shape_limits.py).
+    spec = spec_from_dict(
+        {
+            "part": {"function": "beam", "support": "cantilever", "length": "1 m"},
+            "constraint": [{"type": "stiffness", "max_deflection": "1 mm"}],
+        }
+    )
+    table = select(spec, TABLE).table.set_index("id")
+    assert table.loc["stiff", "index_with_shape"] == pytest.approx(44**0.5 * table.loc["stiff", "index"])
+    assert table.loc["light", "index_with_shape"] == pytest.approx(5**0.5 * table.loc["light", "index"])

@@ -155,3 +155,19 @@ def test_column_buckles_about_its_weak_axis_worked_by_hand():
     assert row["dimensions"]["b"] == pytest.approx(b, rel=1e-9)
     assert row["dimensions"]["h"] == pytest.approx(2 * b, rel=1e-9)
     assert row["utilisation"]["buckling"] == pytest.approx(1.0, rel=1e-9)
+
+
+@pytest.mark.parametrize(
+    ("free", "dims"),
+    [
+        ("wall", {"d": "40 mm", "t": "2 mm"}),
+        ("none", {"d": "60 mm", "t": "3 mm"}),
+        ("scale", {"d": "40 mm", "t": "2 mm"}),
+    ],
+)
+def test_each_objective_lies_within_its_own_range(free, dims):
+    spec = _beam_spec([{"type": "stiffness", "max_deflection": "20 mm"}], shape="tube", free=free, dims=dims)
+    table = select(spec, _random_table(20, seed=3)).shortlist
+    assert len(table) > 0
+    assert (table["objective_low"] <= table["objective"] * (1 + 1e-9)).all()
+    assert (table["objective"] <= table["objective_high"] * (1 + 1e-9)).all()

@@ -383,7 +383,7 @@ def shortlist_view(selection: Any, units: str) -> Any:
     unit = index_col[len("index [") : -1]
     value_cols = [c for c in frame.columns if c.startswith(("mass [", "cost [", "co2 ["))]
     head = ["rank", "class", "family", "status", f"index ({unit})"]
-    if selection.sized:
+    if selection.has_sizes:
         head += [f"size ({LENGTH_UNIT[units]})", *value_cols, "governing"]
     head.append("notes")
     rows = []
@@ -392,7 +392,7 @@ def shortlist_view(selection: Any, units: str) -> Any:
         cells: list[Any] = [rank, _pick_button(r["id"], r["name"]), r["family"], r["status"]]
         cells.append(_number(r[index_col]))
         notes = list(r["reasons"])
-        if selection.sized:
+        if selection.has_sizes:
             dims = r["dimensions"] if isinstance(r["dimensions"], dict) else {}
             sizes = [html.Div(f"{k} = {_number(v)}", className="nowrap") for k, v in dims.items()]
             cells.append(sizes or "–")
