@@ -227,7 +227,7 @@ def design_of(spec: Spec, shape: str) -> Design:
 
 
 SHAPE_CONSTANT = {"k_I": "bending_stiffness", "k_Imin": "bending_stiffness", "k_Z": "bending_strength"}
-"""Shape constant → the shape-limit mode it scales with (k_I = φ_B/12, k_Z = φ_f/6; φ = 1 for a solid square)."""
+"""Shape constant → the shape-limit mode it scales with (k_I = φ_B/12, k_Z = φ_f/6; square: φ = 1)."""
 
 
 def index_with_shape(table: pd.DataFrame, derivation: Derivation) -> np.ndarray:

@@ -43,7 +43,7 @@ DEFAULT_DIMS: dict[str, dict[str, float]] = {
     "tee": {"b": 1.0, "h": 1.0, "tf": 0.1, "tw": 0.08},
 }
 SHAPE_CONSTANTS = frozenset({"k_I", "k_Imin", "k_Z", "k_J", "k_Zt"})
-"""Section-model symbols with the scale free: I = k_I·A² (I_min = k_Imin·A²), Z = k_Z·A^1.5, J = k_J·A², ..."""
+"""Section-model symbols with the scale free: I = k_I·A², I_min = k_Imin·A², Z = k_Z·A^1.5, ..."""
 CHECK_TOLERANCE = 1e-9
 """Utilisation slack when checking a part whose dimensions are all fixed (free = none)."""
 SIZED_COLUMNS = (
