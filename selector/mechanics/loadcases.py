@@ -9,7 +9,8 @@ Symbols (SI): F force [N], L length or span [m], T torque [N·m], p pressure [Pa
 U stored energy [J], b width [m], r radius [m], delta allowed deflection [m],
 theta allowed twist [rad], SF safety factor [-]; section: A area [m²],
 I second moment about the bending axis and Imin the least principal one [m⁴],
-Z elastic section modulus [m³], J torsion constant [m⁴], Zt torsional section modulus [m³]; t wall or plate thickness [m], V volume [m³];
+Z elastic section modulus [m³], J torsion constant [m⁴], Zt torsional section modulus [m³];
+t wall or plate thickness [m], V volume [m³];
 properties: E, G, sigma_y, sigma_c [Pa], rho [kg/m³].
 """
 
