@@ -13,30 +13,24 @@ import click
 from selector import __version__
 
 FORMATS = ("table", "csv", "json", "md")
+FAMILY_NAMES = (
+    "metal",
+    "polymer",
+    "composite",
+    "ceramic",
+    "glass",
+    "foam",
+    "natural",
+    "elastomer",
+    "mineral",
+)
+"""The families, spelled out here so that `--help` needs no import of the registry (checked by a test)."""
 format_option = click.option(
     "--format", "fmt", type=click.Choice(FORMATS), default=None, help="Output format (default: table)."
 )
 units_option = click.option(
     "--units", type=click.Choice(("si", "us")), default=None, help="Units system for output."
 )
-
-
-class Quantity(click.ParamType):
-    """A click parameter for quantities such as "200 MPa"; checks the unit's dimension."""
-
-    name = "quantity"
-
-    def __init__(self, unit: str) -> None:
-        self.unit = unit
-
-    def convert(self, value, param, ctx):
-        from selector.errors import UnitError
-        from selector.units import magnitude_in
-
-        try:
-            return magnitude_in(str(value), self.unit, f"--{param.name}" if param else "value")
-        except UnitError as exc:
-            self.fail(str(exc.what) + (f"; {exc.expected}" if exc.expected else ""), param, ctx)
 
 
 def _emit(text: str, output: str | None) -> None:
@@ -65,7 +59,9 @@ def materials() -> None:
 
 
 @materials.command("list")
-@click.option("--family", multiple=True, help="Only this family (repeatable).")
+@click.option(
+    "--family", multiple=True, type=click.Choice(FAMILY_NAMES), help="Only this family (repeatable)."
+)
 @click.option("--search", default=None, help="Only classes whose id or name contains TEXT.")
 @click.option("--materials", "files", multiple=True, type=click.Path(), help="Add a materials file.")
 @click.option("--no-builtin", is_flag=True, help="Leave out the built-in table.")
@@ -114,7 +110,7 @@ def materials_check(file, fmt) -> None:
         for p in problems:
             click.echo(f"error: {p}", err=True)
     if problems:
-        click.echo(f"{file}: {len(problems)} problems", err=True)
+        click.echo(f"{file}: {len(problems)} problem{'s' if len(problems) != 1 else ''}", err=True)
         sys.exit(2)
     if fmt != "json":
         click.echo(f"{file}: no problems found")
@@ -191,13 +187,30 @@ def rank(
     """
     from selector import tables
     from selector.api import run_spec
+    from selector.errors import InputError
 
     selection = run_spec(
         spec, files, no_builtin, conservative, expression, protect=[spec, *files], output=output
     )
     fmt = fmt or tables.format_for(output)
     units = units or selection.spec.units
+    if exchange is not None and other is None:
+        raise InputError(
+            "--exchange",
+            "an exchange constant needs a second objective",
+            "add --tradeoff cost (or mass, co2)",
+        )
     if other is not None or draws is not None:
+        if fmt == "xlsx":
+            raise InputError(
+                f"-o {output}",
+                "trade-off and robustness studies are written as text",
+                ".csv, .json, .md or .txt",
+            )
+        if fmt == "csv" and other is not None and draws is not None:
+            raise InputError(
+                "--format csv", "one CSV holds one table", "--tradeoff and --robust in separate runs"
+            )
         _emit(_studies(selection, other, exchange, draws, seed, distribution, fmt), output)
         return
     if output and fmt == "xlsx":
@@ -210,7 +223,9 @@ def rank(
 
 
 def _studies(selection, other, exchange, draws, seed, distribution, fmt) -> str:
-    """Text of the trade-off and robustness studies asked for on `rank`."""
+    """Text of the trade-off and robustness studies asked for on `rank` (JSON: one object)."""
+    import json
+
     parts = []
     if other is not None:
         from selector.tradeoff import render_tradeoff, tradeoff_report
@@ -223,6 +238,10 @@ def _studies(selection, other, exchange, draws, seed, distribution, fmt) -> str:
         result = robustness(selection, draws=draws, seed=seed, distribution=distribution)
         effects = sensitivity(selection, seed=seed, distribution=distribution)
         parts.append(render_robustness(result, fmt if fmt != "xlsx" else "table", effects))
+    if fmt == "json":
+        names = [n for n, asked in (("tradeoff", other), ("robustness", draws)) if asked is not None]
+        merged = {name: json.loads(part) for name, part in zip(names, parts, strict=True)}
+        return json.dumps(merged | {"caution": selection.caution}, indent=2)
     if fmt in (None, "table", "md"):
         parts.append(f"CAUTION: {selection.caution}")
     return "\n\n".join(parts)

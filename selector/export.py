@@ -13,6 +13,7 @@ import numpy as np
 import pandas as pd
 
 from selector.errors import OutputError
+from selector.tables import flat_frame
 
 
 def write_bytes_atomic(path: Path, data: bytes) -> None:
@@ -69,40 +70,6 @@ def _plain(value: Any) -> Any:
     if value is None or value is pd.NA:
         return None
     return value
-
-
-def flat_frame(selection: Any, units: str = "si", show_all: bool = False) -> pd.DataFrame:
-    """The shortlist frame with one column per dimension and per constraint's utilisation.
-
-    Columns keep their units in the headers (``d [mm]``, ``mass [kg]``); ``utilisation_<constraint>``
-    is the ratio of the constraint's demand to its limit (1 at the limit); reasons and warnings
-    are joined with "; ".
-    """
-    from selector.tables import LENGTH_UNIT, selection_frame
-
-    frame = selection_frame(selection, units, show_all)
-    out = frame.copy()
-    if "dimensions" in out:
-        lu = LENGTH_UNIT[units]
-        names = sorted({k for d in out["dimensions"] if isinstance(d, dict) for k in d})
-        at = out.columns.get_loc("dimensions")
-        for offset, k in enumerate(names):
-            values = [d.get(k) if isinstance(d, dict) else None for d in out["dimensions"]]
-            out.insert(at + offset, f"{k} [{lu}]", pd.array(values, dtype="Float64").astype(float))
-        out = out.drop(columns="dimensions")
-    if "utilisation" in out:
-        kinds = [d.constraint for d in selection.derivations]
-        at = out.columns.get_loc("utilisation")
-        for offset, k in enumerate(kinds):
-            values = [u.get(k) if isinstance(u, dict) else None for u in out["utilisation"]]
-            out.insert(at + offset, f"utilisation_{k}", pd.array(values, dtype="Float64").astype(float))
-        out = out.drop(columns="utilisation")
-    for col in ("warnings", "reasons"):
-        if col in out:
-            out[col] = ["; ".join(v) if isinstance(v, list | tuple) else "" for v in out[col]]
-    if "rank" in out and out["rank"].notna().all():
-        out["rank"] = out["rank"].astype(int)
-    return out
 
 
 def spec_rows(selection: Any) -> list[tuple[str, str, Any]]:

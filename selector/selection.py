@@ -325,7 +325,7 @@ def select(
             f"free = none: every part is checked as given; the index shown is for free = {derive_free}"
         )
     shape = spec.section.shape
-    if shape == "generic" and spec.section.free == "scale":
+    if shape == "generic" and spec.section.free == "scale" and spec.part.function in SECTION_FUNCTIONS:
         notes.append(
             "section: a generic solid square at fixed proportions (set [section] shape to size a real one)"
         )

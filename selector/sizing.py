@@ -269,7 +269,7 @@ def _one_part(row, x, derivations, design, mid, i, constants) -> dict[str, objec
 
 def _shape_warnings(design: Design, dims: dict[str, float], fn: str, family: str) -> list[str]:
     """Warn where the section is more efficient than the family can practically be made."""
-    if fn in ("cylinder", "sphere", "plate", "spring", "tie") or design.shape in (
+    if fn in ("cylinder", "sphere", "plate", "spring", "tie", "shaft") or design.shape in (
         "generic",
         "rectangle",
         "round",

@@ -236,5 +236,7 @@ def parse_dimension_args(shape: str, args: tuple[str, ...] | list[str]) -> dict[
             raise InputError(f"section {shape}", f"cannot read {arg!r}", "NAME=VALUE with a unit, e.g. t=2mm")
         name = name.strip()
         unit = "Pa" if name.startswith("E_") else "m"
+        if name in dims:
+            raise InputError(f"section {shape}: {name}", f"{name} is given twice", "each dimension once")
         dims[name] = magnitude_in(text.strip(), unit, f"section {shape}: {name}")
     return dims

@@ -285,6 +285,39 @@ def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -
     return out.reset_index(drop=True)
 
 
+def flat_frame(selection: Any, units: str = "si", show_all: bool = False) -> pd.DataFrame:
+    """The shortlist frame with one column per dimension and per constraint's utilisation.
+
+    Columns keep their units in the headers (``d [mm]``, ``mass [kg]``); ``utilisation_<constraint>``
+    is the ratio of the constraint's demand to its limit (1 at the limit); reasons and warnings
+    are joined with "; ".
+    """
+    out = selection_frame(selection, units, show_all)
+    if "dimensions" in out:
+        lu = LENGTH_UNIT[units]
+        names = sorted({k for d in out["dimensions"] if isinstance(d, dict) for k in d})
+        at = out.columns.get_loc("dimensions")
+        for offset, k in enumerate(names):
+            values = [d.get(k) if isinstance(d, dict) else None for d in out["dimensions"]]
+            out.insert(at + offset, f"{k} [{lu}]", pd.array(values, dtype="Float64").astype(float))
+        out = out.drop(columns="dimensions")
+    if "utilisation" in out:
+        kinds = [d.constraint for d in selection.derivations]
+        at = out.columns.get_loc("utilisation")
+        for offset, k in enumerate(kinds):
+            values = [u.get(k) if isinstance(u, dict) else None for u in out["utilisation"]]
+            out.insert(at + offset, f"utilisation_{k}", pd.array(values, dtype="Float64").astype(float))
+        out = out.drop(columns="utilisation")
+    for col in ("warnings", "reasons"):
+        if col in out:
+            out[col] = ["; ".join(v) if isinstance(v, list | tuple) else "" for v in out[col]]
+    if "rank" in out and out["rank"].notna().all():
+        out["rank"] = out["rank"].astype(int)
+    if selection.has_sizes:
+        out["caution"] = selection.caution
+    return out
+
+
 def render_selection(
     selection: Any, fmt: str, units: str = "si", top: int | None = None, show_all: bool = False
 ) -> str:
@@ -300,22 +333,13 @@ def render_selection(
                 r["dimensions"] = {k: {"value": v, "unit": lu} for k, v in r["dimensions"].items()}
             if "rank" in r and r["rank"] is not None:
                 r["rank"] = int(r["rank"])
+            if selection.has_sizes:
+                r["caution"] = selection.caution
         return json.dumps(records, indent=2, allow_nan=False, default=_json_value)
     if fmt == "csv":
-        flat = frame.copy()
-        if "dimensions" in flat:
-            lu = LENGTH_UNIT[units]
-            names = sorted({k for d in flat["dimensions"] if isinstance(d, dict) for k in d})
-            for k in names:
-                flat.insert(
-                    flat.columns.get_loc("dimensions"),
-                    f"{k} [{lu}]",
-                    [d.get(k) if isinstance(d, dict) else None for d in flat["dimensions"]],
-                )
-            flat = flat.drop(columns="dimensions")
-            flat["utilisation"] = [_util_text(u) for u in flat["utilisation"]]
-            flat["warnings"] = ["; ".join(w) if isinstance(w, list) else "" for w in flat["warnings"]]
-        flat["reasons"] = ["; ".join(r) for r in flat["reasons"]]
+        flat = flat_frame(selection, units, show_all)
+        if top:
+            flat = flat[flat["rank"].isna() | (flat["rank"] <= top)] if show_all else flat.head(top)
         return flat.to_csv(index=False).rstrip("\n")
     shown = _compact(frame, units)
     body = render(shown, "md" if fmt == "md" else "table")
@@ -332,7 +356,9 @@ def render_selection(
     foot = [
         f"{len(selection.shortlist)} candidates ({ranked}); {len(selection.rejected)} rejected"
         + ("" if show_all else " (--all lists them with reasons)"),
-        "* index range overlaps the leader's: too close to call",
+        "* its "
+        + ("objective" if selection.sized else "index")
+        + " range overlaps the leader's: too close to call",
         "",
         f"CAUTION: {selection.caution}",
     ]

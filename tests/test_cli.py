@@ -111,6 +111,7 @@ def test_rank_every_example(run, example):
         assert first["mass"]["unit"] in ("kg", "lb")
         assert first["governing"] in first["utilisation"]
         assert all(set(v) == {"value", "unit"} for v in first["dimensions"].values())
+        assert first["caution"].startswith("Preliminary selection only")
 
 
 def test_rank_table_prints_caution(run):
@@ -143,7 +144,10 @@ def test_rank_writes_csv(tmp_path, run):
     out = tmp_path / "shortlist.csv"
     result = run("rank", str(EXAMPLES / "greenhouse-tie-rod.toml"), "-o", str(out))
     assert result.exit_code == 0
-    assert out.read_text(encoding="utf-8").startswith("rank,id,name,family,status,index [")
+    text = out.read_text(encoding="utf-8")
+    assert text.startswith("rank,id,name,family,status,index [")
+    assert text.splitlines()[0].endswith(",caution")
+    assert "Preliminary selection only" in text.splitlines()[1]
 
 
 def test_section_json(run):
@@ -210,3 +214,22 @@ def test_materials_list_table_is_narrow(run):
     result = run("materials", "list", "--family", "foam")
     header = result.output.splitlines()[0]
     assert "E [GPa]" in header and "K_IC" not in header
+
+
+def test_family_names_match_the_registry():
+    from selector.cli import FAMILY_NAMES
+    from selector.properties import FAMILIES
+
+    assert FAMILY_NAMES == FAMILIES
+
+
+def test_unknown_family_is_refused():
+    result = _main("materials", "list", "--family", "metals")
+    assert result.returncode == 2
+    assert "metals" in result.stderr and "Traceback" not in result.stderr
+
+
+def test_repeated_dimension_is_refused():
+    result = _main("section", "rectangle", "b=1mm", "b=3mm", "h=4mm")
+    assert result.returncode == 2
+    assert result.stderr.startswith("error: section rectangle: b: b is given twice")
