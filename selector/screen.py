@@ -181,3 +181,23 @@ def screen_mask(table: pd.DataFrame, screens: Screens) -> np.ndarray:
         rejected |= fail | missing
         partly |= part
     return np.where(rejected, REJECTED, np.where(partly, PARTLY, PASSES))
+
+
+def qualifying_ranges(screened: pd.DataFrame, screens: Screens) -> pd.DataFrame:
+    """A copy where each class that passes *partly* keeps only the part of its ranges that qualifies.
+
+    Ranking and sizing then use property values the screens allow (e.g. a class with
+    σ_y 140–305 MPa under a screen σ_y ≥ 300 MPa is treated as 300–305 MPa).
+    """
+    out = screened.copy()
+    partly = (out["status"] == PARTLY).to_numpy()
+    for limit in screens.limits:
+        if limit.is_rating:
+            continue
+        prop = PROPERTIES[limit.symbol]
+        low, high = out[prop.low].to_numpy(dtype=float), out[prop.high].to_numpy(dtype=float)
+        if limit.op == ">=":
+            out[prop.low] = np.where(partly & (low < limit.value) & (high >= limit.value), limit.value, low)
+        else:
+            out[prop.high] = np.where(partly & (high > limit.value) & (low <= limit.value), limit.value, high)
+    return out

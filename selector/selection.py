@@ -13,7 +13,7 @@ from selector.errors import InputError
 from selector.mechanics.loadcases import load_case
 from selector.properties import PROPERTIES
 from selector.rank import monomial_index, rank_by_index, rank_by_value, rerank_by_index
-from selector.screen import REJECTED, Screens, apply_screens, parse_screens
+from selector.screen import PARTLY, REJECTED, Screens, apply_screens, parse_screens, qualifying_ranges
 from selector.sizing import DEFAULT_DIMS, Design, missing_inputs, size_parts
 from selector.spec import DIMENSION_FIELDS, QUANTITY_FIELDS, Spec
 
@@ -303,7 +303,7 @@ def select(
         seen.add(c.type)
         derivations.append(derive_for_case(case, c.type, spec.objective.minimize, derive_free))
     screens = parse_screens(spec.screen)
-    screened = apply_screens(materials.reset_index(drop=True), screens)
+    screened = qualifying_ranges(apply_screens(materials.reset_index(drop=True), screens), screens)
     if expression is not None:
         low, high, typ, needs = expression_index(screened, expression)
         table = rank_by_index(screened, low, high, typ, conservative, needs=needs)
@@ -320,6 +320,8 @@ def select(
     if expression is None:
         table["index_with_shape"] = index_with_shape(table, first)
     notes = list(case.notes)
+    if (screened["status"] == PARTLY).any():
+        notes.append("classes that pass partly are ranked on the part of their ranges that meets the screens")
     if free == "none":
         notes.append(
             f"free = none: every part is checked as given; the index shown is for free = {derive_free}"
