@@ -33,6 +33,7 @@ from selector.errors import InputError, OutputError, SelectorError
 from selector.expressions import Binary, Call, Expression, Negate, Node, Number, Symbol, parse
 from selector.properties import FAMILIES, PROPERTIES
 from selector.screen import PARTLY, PASSES, REJECTED, Limit, Screens, apply_screens
+from selector.suggest import did_you_mean
 from selector.units import convert, format_number
 
 __all__ = [
@@ -114,14 +115,6 @@ _STATUS_TEXT = {PASSES: "passes the screens", PARTLY: "passes the screens partly
 def _esc(text: Any) -> str:
     """User text made safe for plotly's HTML-like labels: ``&``, ``<`` and ``>`` escaped."""
     return html.escape(str(text), quote=False)
-
-
-def _suggest(word: str, choices: Sequence[str] | Mapping[str, Any]) -> str:
-    """A hint naming the closest of ``choices`` (at most three), without listing them all."""
-    import difflib
-
-    close = difflib.get_close_matches(str(word), list(choices), n=3, cutoff=0.6)
-    return f"did you mean {', '.join(map(repr, close))}?" if close else "the id of a class drawn on the chart"
 
 
 def _short(text: str, limit: int = MAX_LABEL) -> str:
@@ -1268,7 +1261,11 @@ def _index_value(
         i = int(np.argsort(values)[len(values) // 2])
         return float(values[i]), classes.names[i]
     if target not in where:
-        raise InputError("index line: through", f"no drawn class with id {target!r}", _suggest(target, where))
+        raise InputError(
+            "index line: through",
+            f"no drawn class with id {target!r}",
+            did_you_mean(target, where, fallback="the id of a class drawn on the chart"),
+        )
     i = where[target]
     return float(line.value(classes.x_mid[i], classes.y_mid[i])), classes.names[i]
 

@@ -48,6 +48,7 @@ from selector.properties import (
     Property,
     data_columns,
 )
+from selector.suggest import did_you_mean
 
 BUILTIN = "built-in"
 """The ``origin`` of rows from the built-in table."""
@@ -251,7 +252,12 @@ def _check_words(table: pd.DataFrame, skip: pd.DataFrame, report: _Report) -> No
     for pos in np.flatnonzero(family.eq("").to_numpy() & asked):
         report.cell(pos, "family", "family is missing", f"expected one of: {', '.join(FAMILIES)}")
     for pos in np.flatnonzero((family.ne("") & ~family.isin(FAMILIES)).to_numpy() & asked):
-        report.cell(pos, "family", f"unknown family {family.iat[pos]!r}", _nearest(family.iat[pos], FAMILIES))
+        report.cell(
+            pos,
+            "family",
+            f"unknown family {family.iat[pos]!r}",
+            did_you_mean(family.iat[pos], FAMILIES, keep_order=True),
+        )
     for rating in RATINGS:
         word = table[rating]
         asked = ~skip[rating].to_numpy()
@@ -260,7 +266,7 @@ def _check_words(table: pd.DataFrame, skip: pd.DataFrame, report: _Report) -> No
                 pos,
                 rating,
                 f"unknown rating {word.iat[pos]!r}",
-                _nearest(word.iat[pos], RATING_LEVELS) + ", or empty if unknown",
+                did_you_mean(word.iat[pos], RATING_LEVELS, keep_order=True) + ", or empty if unknown",
             )
 
 
@@ -313,12 +319,6 @@ def _check_order(
             f"{at} {_fmt(shown[at], prop)} is {side} {other} {_fmt(shown[other], prop)}",
             f"expected the {rule}",
         )
-
-
-def _nearest(word: str, choices: Sequence[str]) -> str:
-    close = difflib.get_close_matches(word, choices, n=1, cutoff=0.6)
-    listing = ", ".join(choices)
-    return f"did you mean {close[0]!r}? (valid: {listing})" if close else f"expected one of: {listing}"
 
 
 # ---------------------------------------------------------------------------- frames
@@ -838,7 +838,11 @@ def _toml_ratings(value: Any, pos: int, table: dict[str, Any], bad: Any) -> None
         return
     for name, word in value.items():
         if name not in RATINGS:
-            bad(f"ratings.{name}", f"unknown rating {name!r}", _nearest(name, list(RATINGS)))
+            bad(
+                f"ratings.{name}",
+                f"unknown rating {name!r}",
+                did_you_mean(name, list(RATINGS), keep_order=True),
+            )
         elif not isinstance(word, str):
             bad(f"ratings.{name}", f"{word!r} is not text", f"expected one of: {', '.join(RATING_LEVELS)}")
         else:
