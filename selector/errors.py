@@ -67,7 +67,7 @@ class ExpressionError(InputError):
     def __init__(self, text: str, position: int, what: str, where: str = "expression") -> None:
         self.text, self.position = text, position
         caret = " " * position + "^"
-        super().__init__(where, f"{what} at column {position + 1}\n  {text}\n  {caret}")
+        super().__init__(f"{where}, column {position + 1}", f"{what}\n  {text}\n  {caret}")
 
 
 class OutputError(SelectorError, OSError):

@@ -110,7 +110,7 @@ def test_missing_value_is_an_expression_error():
     with pytest.raises(ExpressionError) as info:
         parse("E/rho").evaluate({"E": 1.0})
     assert info.value.position == 2
-    assert "no values given for property 'rho' at column 3" in str(info.value)
+    assert str(info.value).startswith("expression, column 3: no values given for property 'rho'")
 
 
 def test_non_numeric_values_are_an_expression_error():
@@ -336,7 +336,7 @@ def test_interval_accepts_swapped_bounds():
 
 
 def message(text: str, position: int, what: str) -> str:
-    return f"expression: {what} at column {position + 1}\n  {text}\n  {' ' * position}^"
+    return f"expression, column {position + 1}: {what}\n  {text}\n  {' ' * position}^"
 
 
 OPERAND = "expected a number, a property symbol or '('"
@@ -347,7 +347,7 @@ def test_error_message_layout_written_out():
     with pytest.raises(ExpressionError) as info:
         parse("E $ rho")
     assert str(info.value) == (
-        f"expression: unexpected character '$'; {CHARACTER} at column 3\n  E $ rho\n    ^"
+        f"expression, column 3: unexpected character '$'; {CHARACTER}\n  E $ rho\n    ^"
     )
     assert info.value.position == 2
     assert isinstance(info.value, InputError)
