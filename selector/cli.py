@@ -11,6 +11,7 @@ from pathlib import Path
 import click
 
 from selector import __version__
+from selector.properties import FAMILIES
 
 FORMATS = ("table", "csv", "json", "md")
 FAMILY_NAMES = (
@@ -59,9 +60,7 @@ def materials() -> None:
 
 
 @materials.command("list")
-@click.option(
-    "--family", multiple=True, type=click.Choice(FAMILY_NAMES), help="Only this family (repeatable)."
-)
+@click.option("--family", multiple=True, type=click.Choice(FAMILIES), help="Only this family (repeatable).")
 @click.option("--search", default=None, help="Only classes whose id or name contains TEXT.")
 @click.option("--materials", "files", multiple=True, type=click.Path(), help="Add a materials file.")
 @click.option("--no-builtin", is_flag=True, help="Leave out the built-in table.")

@@ -8,9 +8,9 @@ from __future__ import annotations
 
 import tomllib
 from pathlib import Path
-from typing import Any
+from typing import Annotated, Any
 
-from pydantic import BaseModel, ConfigDict, Field, ValidationError, field_validator
+from pydantic import AfterValidator, BaseModel, ConfigDict, Field, ValidationError, field_validator
 
 from selector.derive import FREE_VARIABLES, OBJECTIVES
 from selector.errors import InputError
@@ -30,6 +30,17 @@ QUANTITY_FIELDS: dict[str, str] = {
 DIMENSION_FIELDS = ("b", "h", "d", "t", "tf", "tw")
 
 
+def _one_of(choices: tuple[str, ...], noun: str) -> AfterValidator:
+    """A validator accepting only ``choices``, suggesting the nearest one otherwise."""
+
+    def check(value: str) -> str:
+        if value not in choices:
+            raise ValueError(f"{value!r} is not {noun}; {did_you_mean(value, choices)}")
+        return value
+
+    return AfterValidator(check)
+
+
 class _Strict(BaseModel):
     model_config = ConfigDict(extra="forbid", frozen=True)
 
@@ -37,7 +48,7 @@ class _Strict(BaseModel):
 class Part(_Strict):
     """What the part is and what it carries. Quantities are text with units ("1.8 m")."""
 
-    function: str
+    function: Annotated[str, _one_of(FUNCTIONS, "a function")]
     support: str | None = None
     load: str | None = None
     length: str | None = None
@@ -48,32 +59,18 @@ class Part(_Strict):
     width: str | None = None
     radius: str | None = None
 
-    @field_validator("function")
-    @classmethod
-    def _known_function(cls, value: str) -> str:
-        if value not in FUNCTIONS:
-            raise ValueError(f"{value!r} is not a function; {did_you_mean(value, FUNCTIONS)}")
-        return value
-
 
 class SectionSpec(_Strict):
     """The cross-section: its shape, what may change, and its reference dimensions."""
 
     shape: str = "generic"
-    free: str = "scale"
+    free: Annotated[str, _one_of(FREE_VARIABLES, "a free variable")] = "scale"
     b: str | None = None
     h: str | None = None
     d: str | None = None
     t: str | None = None
     tf: str | None = None
     tw: str | None = None
-
-    @field_validator("free")
-    @classmethod
-    def _known_free(cls, value: str) -> str:
-        if value not in FREE_VARIABLES:
-            raise ValueError(f"{value!r} is not a free variable; {did_you_mean(value, FREE_VARIABLES)}")
-        return value
 
     @property
     def dims(self) -> dict[str, str]:
@@ -82,30 +79,16 @@ class SectionSpec(_Strict):
 
 
 class Objective(_Strict):
-    minimize: str = "mass"
-
-    @field_validator("minimize")
-    @classmethod
-    def _known_objective(cls, value: str) -> str:
-        if value not in OBJECTIVES:
-            raise ValueError(f"{value!r} is not an objective; {did_you_mean(value, OBJECTIVES)}")
-        return value
+    minimize: Annotated[str, _one_of(OBJECTIVES, "an objective")] = "mass"
 
 
 class Constraint(_Strict):
     """One requirement the part must meet; limits are quantities with units."""
 
-    type: str
+    type: Annotated[str, _one_of(CONSTRAINTS, "a constraint type")]
     max_deflection: str | None = None
     max_twist: str | None = None
-    safety_factor: float = Field(default=1.0, gt=0)
-
-    @field_validator("type")
-    @classmethod
-    def _known_type(cls, value: str) -> str:
-        if value not in CONSTRAINTS:
-            raise ValueError(f"{value!r} is not a constraint type; {did_you_mean(value, CONSTRAINTS)}")
-        return value
+    safety_factor: float = Field(default=1.0, gt=0, allow_inf_nan=False)
 
 
 class Materials(_Strict):

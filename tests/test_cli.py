@@ -216,13 +216,6 @@ def test_materials_list_table_is_narrow(run):
     assert "E [GPa]" in header and "K_IC" not in header
 
 
-def test_family_names_match_the_registry():
-    from selector.cli import FAMILY_NAMES
-    from selector.properties import FAMILIES
-
-    assert FAMILY_NAMES == FAMILIES
-
-
 def test_unknown_family_is_refused():
     result = _main("materials", "list", "--family", "metals")
     assert result.returncode == 2

@@ -135,11 +135,13 @@ def test_bad_limits_are_clear(symbol, text, error, message):
 def test_partly_passing_classes_keep_only_the_qualifying_range():
     from selector.screen import qualifying_ranges
 
-    table = make_table([
-        {"id": "wide", "sigma_y": (140, 305), "sigma_ts": (200, 400)},
-        {"id": "cheap", "price": (1, 10)},
-        {"id": "out", "sigma_y": (100, 200), "sigma_ts": (150, 250)},
-    ])
+    table = make_table(
+        [
+            {"id": "wide", "sigma_y": (140, 305), "sigma_ts": (200, 400)},
+            {"id": "cheap", "price": (1, 10)},
+            {"id": "out", "sigma_y": (100, 200), "sigma_ts": (150, 250)},
+        ]
+    )
     screens = parse_screens({"sigma_y": ">= 300 MPa", "price": "<= 4 USD/kg"})
     out = qualifying_ranges(apply_screens(table, screens), screens).set_index("id")
     assert (out.loc["wide", "sigma_y_low"], out.loc["wide", "sigma_y_high"]) == (300, 305)
