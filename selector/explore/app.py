@@ -325,7 +325,7 @@ def _route(where: str) -> str:
         return "objective"
     if place.startswith("section.free"):
         return "free"
-    if place in ("index", "expression") or place.startswith("index"):
+    if place in ("index", "expression") or place.startswith(("index", "expression")):
         return "index"
     if place.startswith("screen"):
         return "families"
