@@ -13,6 +13,7 @@ bracketed 1-D root finder on the exact section corrects the size.
 
 from __future__ import annotations
 
+import functools
 import math
 from collections.abc import Mapping
 from dataclasses import dataclass
@@ -90,7 +91,12 @@ def shape_constants(shape: str, dims: Mapping[str, float]) -> dict[str, float]:
 
 
 def build(shape: str, dims: Mapping[str, float]) -> sec.Section:
-    """A real section; the generic shape is a solid square."""
+    """A real section; the generic shape is a solid square (sections are immutable, so cached)."""
+    return _build(shape, tuple(sorted(dims.items())))
+
+
+@functools.lru_cache(maxsize=1024)
+def _build(shape: str, dims: tuple[tuple[str, float], ...]) -> sec.Section:
     return sec.build_section("rectangle" if shape == "generic" else shape, dict(dims))
 
 

@@ -795,3 +795,23 @@ def test_fuzzed_toml_values_never_escape(
         f'[[class]]\nid = "x"\nfamily = "metal"\n{symbol} = "{quoted}"\n', encoding="utf-8", errors="replace"
     )
     _assert_only_our_errors(path)
+
+
+def test_the_fast_read_of_the_builtin_table_equals_the_validated_read():
+    import materials_db
+    from selector import materials
+
+    path = Path(materials_db.CLASSES_CSV)
+    fast = materials._read_trusted(path)
+    slow, problems = materials._read_csv(path, str(path), user=False)
+    assert problems == []
+    assert fast is not None
+    pd.testing.assert_frame_equal(fast.reset_index(drop=True), slow.reset_index(drop=True), check_dtype=False)
+
+
+def test_the_fast_read_declines_a_table_in_another_layout(tmp_path):
+    from selector import materials
+
+    odd = tmp_path / "odd.csv"
+    odd.write_text("id,family,E_low [Msi]\nx,metal,10\n", encoding="utf-8")
+    assert materials._read_trusted(odd) is None
