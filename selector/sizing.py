@@ -65,6 +65,10 @@ SIZED_COLUMNS = (
 FREE_DIMENSION = {"depth": "h", "width": "b", "thickness": "h", "wall": "t"}
 
 
+SCALE_POWER = {"A": 2, "I": 4, "Imin": 4, "Z": 3, "J": 4, "Zt": 3}
+"""Power of the linear scale factor by which each section quantity grows."""
+
+
 def section_quantities(section: sec.Section) -> dict[str, float]:
     """The section quantities the load cases use: A, I, Z, J, Zt [SI]."""
     return {
@@ -283,7 +287,9 @@ def _shape_warnings(design: Design, dims: dict[str, float], fn: str, family: str
         return []
     from selector.mechanics.shape_limits import max_shape_factor
 
-    section = build(design.shape, dims)
+    section = build(
+        design.shape, design.dims if design.free == "scale" else dims
+    )  # φ does not change with scale
     phi, limit = section.phi_bending_stiffness, max_shape_factor(family, "bending_stiffness")
     if phi > limit:
         return [f"shape factor {phi:.3g} exceeds the practical limit of about {limit:g} for {family}"]
@@ -307,9 +313,17 @@ def _geometry_values(design: Design, dims: dict[str, float], fn: str) -> dict[st
     if fn == "spring":
         return {"V": dims["V"]}
     try:
-        return section_quantities(build(design.shape, dims)) | {"b": dims.get("b", 0.0)}
+        if design.free == "scale" and design.dims:
+            # Geometrically similar to the reference section: each quantity scales with a power of size.
+            name = next(iter(design.dims))
+            f = dims[name] / design.dims[name]
+            ref = section_quantities(build(design.shape, design.dims))
+            quantities = {k: v * f ** SCALE_POWER[k] for k, v in ref.items()}
+        else:
+            quantities = section_quantities(build(design.shape, dims))
     except InputError:
         return None
+    return quantities | {"b": dims.get("b", 0.0)}
 
 
 def _refine(design, dims, derivations, props, fn):
