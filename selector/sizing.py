@@ -16,7 +16,7 @@ from __future__ import annotations
 import functools
 import math
 from collections.abc import Mapping
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 import pandas as pd
@@ -140,12 +140,89 @@ def _inputs(d: Derivation, design: Design, constants: Mapping[str, float]) -> di
     return values
 
 
+WALL_DIMENSIONS = ("t", "tf", "tw")
+"""Dimensions thickened when a section is more efficient than its family can be made."""
+CAPPED_FUNCTIONS = ("beam", "column")
+"""Functions whose sections are held to the bending shape-factor limits of Weaver & Ashby."""
+
+
 def size_parts(table: pd.DataFrame, derivations: list[Derivation], design: Design) -> pd.DataFrame:
     """Size every row of ``table``; returns new columns (one row per class, same order).
 
+    With the scale free, a thin-walled section more efficient than a family can
+    practically be made (its shape factor above the family's limit) is sized with its
+    walls thickened to that limit for the classes of that family.
     ``objective_low`` / ``objective_high`` bound the objective with every property at
     its favourable / unfavourable end of the class range.
     """
+    if design.free != "scale" or derivations[0].case.function not in CAPPED_FUNCTIONS or table.empty:
+        return _size_group(table, derivations, design)
+    parts = []
+    for family, rows in table.groupby("family", sort=False):
+        capped = capped_dims(design.shape, design.dims, str(family))
+        if capped is None:
+            parts.append(_size_group(rows, derivations, design))
+            continue
+        dims, note = capped
+        sized = _size_group(rows, derivations, replace(design, dims=dims))
+        sized["size_warnings"] = [
+            [note, *w] if isinstance(w, list) else [note] for w in sized["size_warnings"]
+        ]
+        parts.append(sized)
+    return pd.concat(parts).reindex(table.index)
+
+
+def capped_dims(shape: str, dims: Mapping[str, float], family: str) -> tuple[dict[str, float], str] | None:
+    """Proportions with the walls thickened to the family's shape-factor limits, and a note.
+
+    None when the section is already within both limits (bending stiffness and strength)
+    or has no walls to thicken.
+    """
+    from selector.mechanics.shape_limits import max_shape_factor
+
+    walls = [k for k in WALL_DIMENSIONS if k in dims]
+    if not walls:
+        return None
+    limit_e = max_shape_factor(family, "bending_stiffness")
+    limit_f = max_shape_factor(family, "bending_strength")
+
+    def thickened(w: float) -> dict[str, float]:
+        return {k: v * w if k in walls else v for k, v in dims.items()}
+
+    def within(w: float) -> bool | None:
+        try:
+            section = build(shape, thickened(w))
+        except InputError:
+            return None
+        return section.phi_bending_stiffness <= limit_e and section.phi_bending_strength <= limit_f
+
+    if within(1.0):
+        return None
+    lo, hi = 1.0, 2.0
+    while within(hi) is False:
+        lo, hi = hi, hi * 2
+    if within(hi) is None:  # walls would overlap before the limit is reached: find the thickest valid
+        valid = lo
+        for _ in range(60):
+            mid = math.sqrt(valid * hi)
+            valid, hi = (mid, hi) if within(mid) is not None else (valid, mid)
+        if not within(valid):
+            return thickened(valid), f"walls thickened as far as the shape allows for {family}"
+        hi = valid
+    for _ in range(60):
+        mid = math.sqrt(lo * hi)
+        lo, hi = (mid, hi) if not within(mid) else (lo, mid)
+    before = build(shape, dims).phi_bending_stiffness
+    after = build(shape, thickened(hi)).phi_bending_stiffness
+    note = (
+        f"walls thickened ×{hi:.2g} to the practical shape limit for {family} "
+        f"(shape factor {before:.3g} → {after:.3g})"
+    )
+    return thickened(hi), note
+
+
+def _size_group(table: pd.DataFrame, derivations: list[Derivation], design: Design) -> pd.DataFrame:
+    """Size every row of ``table`` with one design (one section at given proportions)."""
     constants = design_constants(derivations, design)
     symbols = set().union(*(d.objective_value.symbols | d.solution.symbols for d in derivations))
     mid = _si(table, symbols, "mid")

@@ -171,3 +171,23 @@ def test_each_objective_lies_within_its_own_range(free, dims):
     assert len(table) > 0
     assert (table["objective_low"] <= table["objective"] * (1 + 1e-9)).all()
     assert (table["objective"] <= table["objective_high"] * (1 + 1e-9)).all()
+
+
+def test_sections_beyond_a_familys_shape_limit_get_thicker_walls():
+    # A tube with d/t = 25 has φ_B ≈ 11.5; wood's practical limit is about 5 (Weaver & Ashby 1997,
+    # from memory, in shape_limits.py), so a natural class is sized with walls thickened until φ_B = 5.
+    from selector.mechanics.sections import tube
+
+    spec = _beam_spec(
+        [{"type": "stiffness", "max_deflection": "5 mm"}], shape="tube", dims={"d": "50 mm", "t": "2 mm"}
+    )
+    wood = {**ALUMINIUM_LIKE, "id": "wood", "family": "natural"}
+    rows = select(spec, make_table([ALUMINIUM_LIKE, wood])).table.set_index("id")
+    d, t = rows.loc["wood", "dimensions"]["d"], rows.loc["wood", "dimensions"]["t"]
+    assert tube(d, t).phi_bending_stiffness == pytest.approx(5.0, rel=1e-6)
+    assert (
+        tube(rows.loc["al", "dimensions"]["d"], rows.loc["al", "dimensions"]["t"]).phi_bending_stiffness > 11
+    )
+    assert rows.loc["wood", "mass"] > rows.loc["al", "mass"]  # same E and ρ: only the shape differs
+    assert rows.loc["wood", "utilisation"]["stiffness"] == pytest.approx(1.0, rel=1e-9)
+    assert any("walls thickened" in w for w in rows.loc["wood", "size_warnings"])
