@@ -14,18 +14,6 @@ from selector import __version__
 from selector.properties import FAMILIES
 
 FORMATS = ("table", "csv", "json", "md")
-FAMILY_NAMES = (
-    "metal",
-    "polymer",
-    "composite",
-    "ceramic",
-    "glass",
-    "foam",
-    "natural",
-    "elastomer",
-    "mineral",
-)
-"""The families, spelled out here so that `--help` needs no import of the registry (checked by a test)."""
 format_option = click.option(
     "--format", "fmt", type=click.Choice(FORMATS), default=None, help="Output format (default: table)."
 )
