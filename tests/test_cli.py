@@ -32,16 +32,21 @@ def _main(*args: str, cwd: Path | None = None) -> subprocess.CompletedProcess:
     )
 
 
-def test_help_does_not_import_heavy_modules():
+def _assert_not_imported(args: list[str], modules: tuple[str, ...]) -> None:
+    """Run the entry point with ``args`` in a fresh interpreter; none of ``modules`` may be imported."""
     code = (
-        "import sys; sys.argv = ['selector', '--help']\n"
+        f"import sys; sys.argv = ['selector', *{args!r}]\n"
         "from selector.cli import main\n"
         "try:\n    main()\nexcept SystemExit:\n    pass\n"
-        "heavy = [m for m in ('pandas', 'plotly', 'pint', 'numpy') if m in sys.modules]\n"
+        f"heavy = [m for m in {modules!r} if m in sys.modules]\n"
         "assert not heavy, heavy\n"
     )
     result = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=False)
     assert result.returncode == 0, result.stderr
+
+
+def test_help_does_not_import_heavy_modules():
+    _assert_not_imported(["--help"], ("pandas", "plotly", "pint", "numpy"))
 
 
 def test_version(run):
@@ -198,16 +203,9 @@ def test_rank_bad_exchange_is_one_line():
 
 
 def test_rank_imports_neither_plotly_nor_openpyxl():
-    code = (
-        "import sys\n"
-        f"sys.argv = ['selector', 'rank', {str(EXAMPLES / 'camera-dolly-boom.toml')!r}]\n"
-        "from selector.cli import main\n"
-        "try:\n    main()\nexcept SystemExit:\n    pass\n"
-        "heavy = [m for m in ('plotly', 'openpyxl', 'jinja2', 'dash') if m in sys.modules]\n"
-        "assert not heavy, heavy\n"
+    _assert_not_imported(
+        ["rank", str(EXAMPLES / "camera-dolly-boom.toml")], ("plotly", "openpyxl", "jinja2", "dash")
     )
-    result = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=False)
-    assert result.returncode == 0, result.stderr
 
 
 def test_materials_list_table_is_narrow(run):
