@@ -10,7 +10,7 @@ from __future__ import annotations
 import numpy as np
 from _timing import best_of, report
 
-from selector.tradeoff import pareto_front
+from selector.pipeline.tradeoff import pareto_front
 
 N = 1_000_000
 TARGET_S = 2.0

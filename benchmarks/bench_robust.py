@@ -12,9 +12,9 @@ from __future__ import annotations
 import numpy as np
 from _timing import ROOT, best_of, report
 
-from selector.robust import robustness
-from selector.selection import select
-from selector.spec import spec_from_dict
+from selector.inputs.spec import spec_from_dict
+from selector.pipeline.robust import robustness
+from selector.pipeline.selection import select
 
 CLASSES = 100
 DRAWS = 10_000

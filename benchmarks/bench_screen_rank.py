@@ -11,9 +11,9 @@ import numpy as np
 import pandas as pd
 from _timing import best_of, report
 
-from selector.properties import PROPERTIES
-from selector.rank import monomial_index
-from selector.screen import PARTLY, PASSES, REJECTED, apply_screens, parse_screens, screen_mask
+from selector.inputs.properties import PROPERTIES
+from selector.pipeline.rank import monomial_index
+from selector.pipeline.screen import PARTLY, PASSES, REJECTED, apply_screens, parse_screens, screen_mask
 
 N = 1_000_000
 TOP = 100

@@ -6,19 +6,8 @@ from collections.abc import Sequence
 from pathlib import Path
 
 from selector.errors import OutputError
-
-EXAMPLES = Path(__file__).with_name("examples")
-DEMO_SPEC = "camera-dolly-boom.toml"
-
-
-def check_output(output: str | Path | None, protect: Sequence[str | Path]) -> None:
-    """Refuse an output path that is one of the inputs."""
-    if not output:
-        return
-    target = Path(output).resolve()
-    for path in protect:
-        if Path(path).resolve() == target:
-            raise OutputError(str(output), "refusing to write over an input file; choose another name")
+from selector.inputs.spec import DEMO_SPEC, EXAMPLES
+from selector.outputs.files import check_output
 
 
 def run_spec(
@@ -31,9 +20,9 @@ def run_spec(
     output: str | Path | None = None,
 ):
     """Load a spec and its materials, run the pipeline, return the Selection."""
-    from selector.materials import load_materials
-    from selector.selection import select
-    from selector.spec import load_spec
+    from selector.inputs.materials import load_materials
+    from selector.inputs.spec import load_spec
+    from selector.pipeline.selection import select
 
     check_output(output, protect)
     spec = load_spec(spec_path)
@@ -51,10 +40,10 @@ def run_demo(out_dir: Path, robust_draws: int | None = None):
     Writes ``shortlist.csv``, the property chart ``chart.html`` and the HTML report
     ``report.html``; returns (selection, paths).
     """
-    from selector import tables
-    from selector.charts import chart_for_selection, write_chart
-    from selector.export import write_text_atomic
-    from selector.report import DEFAULT_REPORT_DRAWS, write_report
+    from selector.outputs import tables
+    from selector.outputs.charts import chart_for_selection, write_chart
+    from selector.outputs.export import write_text_atomic
+    from selector.outputs.report import DEFAULT_REPORT_DRAWS, write_report
 
     spec_path = EXAMPLES / DEMO_SPEC
     selection = run_spec(spec_path)
@@ -75,3 +64,29 @@ def run_demo(out_dir: Path, robust_draws: int | None = None):
     write_report(selection, report_path, spec_text, spec_path.name, robust_draws=draws, protect=[spec_path])
     written.append(report_path)
     return selection, written
+
+
+def report_from_spec(
+    spec_path: str | Path,
+    output: str | Path,
+    files: Sequence[str] = (),
+    no_builtin: bool = False,
+    units: str | None = None,
+    robust_draws: int | None = None,
+    seed: int | None = None,
+) -> Path:
+    """Run a spec file and write its report to ``output`` (checked before any work is done)."""
+    from selector.outputs.files import ensure_folder
+    from selector.outputs.report import DEFAULT_REPORT_DRAWS, check_report_path, write_report
+
+    draws = DEFAULT_REPORT_DRAWS if robust_draws is None else robust_draws
+
+    protect = [spec_path, *files]
+    check_output(output, protect)
+    target = check_report_path(output)
+    ensure_folder(target)
+    selection = run_spec(spec_path, files, no_builtin, protect=protect, output=target)
+    base = Path(spec_path).parent
+    protect += [str(base / f) for f in selection.spec.materials.files]
+    text = Path(spec_path).read_text(encoding="utf-8")
+    return write_report(selection, target, text, Path(spec_path).name, units, draws, seed, protect)

@@ -11,7 +11,7 @@ from pathlib import Path
 import click
 
 from selector import __version__
-from selector.properties import FAMILIES
+from selector.inputs.properties import FAMILIES
 
 FORMATS = ("table", "csv", "json", "md")
 format_option = click.option(
@@ -24,7 +24,7 @@ units_option = click.option(
 
 def _emit(text: str, output: str | None) -> None:
     if output:
-        from selector.export import write_text_atomic
+        from selector.outputs.files import write_text_atomic
 
         write_text_atomic(Path(output), text)
         click.echo(f"wrote {output}", err=True)
@@ -56,8 +56,8 @@ def materials() -> None:
 @units_option
 def materials_list(family, search, files, no_builtin, fmt, units) -> None:
     """List the material classes."""
-    from selector import tables
-    from selector.materials import load_materials
+    from selector.inputs.materials import load_materials
+    from selector.outputs import tables
 
     table = load_materials(files, builtin=not no_builtin)
     frame = tables.materials_frame(table, family, search, units or "si")
@@ -74,8 +74,8 @@ def materials_list(family, search, files, no_builtin, fmt, units) -> None:
 @units_option
 def materials_show(class_id, files, fmt, units) -> None:
     """Show every property of one class."""
-    from selector import tables
-    from selector.materials import load_materials
+    from selector.inputs.materials import load_materials
+    from selector.outputs import tables
 
     table = load_materials(files)
     click.echo(tables.render(tables.class_frame(table, class_id, units or "si"), fmt or "table"))
@@ -88,7 +88,7 @@ def materials_check(file, fmt) -> None:
     """Check a materials file; list every problem (exit 2 if any)."""
     import json
 
-    from selector.materials import check_materials_file
+    from selector.inputs.materials import check_materials_file
 
     problems = check_materials_file(file)
     if fmt == "json":
@@ -113,8 +113,8 @@ def materials_check(file, fmt) -> None:
 @format_option
 def derive(function, objective, constraint, free, support, load, fmt) -> None:
     """Derive the merit index for FUNCTION and show the steps."""
-    from selector import tables
-    from selector.derive import derive as run
+    from selector.outputs import tables
+    from selector.pipeline.derive import derive as run
 
     result = run(function, constraint, objective, free, support, load)
     click.echo(tables.render_derivation(result, fmt or "table"))
@@ -172,9 +172,9 @@ def rank(
     With --tradeoff the Pareto front against a second objective is shown (and a penalty
     ranking with --exchange); with --robust, the odds of each rank under property scatter.
     """
-    from selector import tables
     from selector.api import run_spec
     from selector.errors import InputError
+    from selector.outputs import tables
 
     selection = run_spec(
         spec, files, no_builtin, conservative, expression, protect=[spec, *files], output=output
@@ -201,7 +201,7 @@ def rank(
         _emit(_studies(selection, other, exchange, draws, seed, distribution, fmt), output)
         return
     if output and fmt == "xlsx":
-        from selector.export import write_xlsx
+        from selector.outputs.export import write_xlsx
 
         write_xlsx(selection, Path(output), units, protect=[spec, *files])
         click.echo(f"wrote {output}", err=True)
@@ -215,12 +215,14 @@ def _studies(selection, other, exchange, draws, seed, distribution, fmt) -> str:
 
     parts = []
     if other is not None:
-        from selector.tradeoff import render_tradeoff, tradeoff_report
+        from selector.outputs.studies import render_tradeoff
+        from selector.pipeline.tradeoff import tradeoff_report
 
         front, second = tradeoff_report(selection, other, exchange)
         parts.append(render_tradeoff(front, second, fmt if fmt != "xlsx" else "table", exchange))
     if draws is not None:
-        from selector.robust import render_robustness, robustness, sensitivity
+        from selector.outputs.studies import render_robustness
+        from selector.pipeline.robust import robustness, sensitivity
 
         result = robustness(selection, draws=draws, seed=seed, distribution=distribution)
         effects = sensitivity(selection, seed=seed, distribution=distribution)
@@ -238,8 +240,8 @@ def _studies(selection, other, exchange, draws, seed, distribution, fmt) -> str:
 @click.option("--out", "out_dir", type=click.Path(), default="selector-demo", show_default=True)
 def demo(out_dir) -> None:
     """Run a bundled example end to end and write its files."""
-    from selector import tables
     from selector.api import run_demo
+    from selector.outputs import tables
 
     selection, written = run_demo(Path(out_dir))
     click.echo(tables.render_selection(selection, "table", selection.spec.units, 10, False))
@@ -254,9 +256,9 @@ def demo(out_dir) -> None:
 @units_option
 def section(shape, dims, fmt, units) -> None:
     """Properties of a cross-section: SHAPE DIM=VALUE ... (e.g. i-section b=100mm h=200mm tf=10mm tw=6mm)."""
-    from selector import tables
+    from selector.inputs.spec import parse_dimension_args
     from selector.mechanics.sections import build_section
-    from selector.spec import parse_dimension_args
+    from selector.outputs import tables
 
     section = build_section(shape, parse_dimension_args(shape, dims))
     click.echo(tables.render_section(section, fmt or "table", units or "si"))
@@ -279,8 +281,8 @@ def chart(
     x_axis, y_axis, spec, index, through, at_value, top, title, files, no_builtin, units, output
 ) -> None:
     """Draw a property chart: every class as a box, with index lines, screens and shortlist."""
-    from selector.api import check_output
-    from selector.charts import chart_for_selection, property_chart, write_chart
+    from selector.outputs.charts import chart_for_selection, property_chart, write_chart
+    from selector.outputs.files import check_output
 
     if spec:
         from selector.api import run_spec
@@ -291,7 +293,7 @@ def chart(
         )
     else:
         from selector.errors import InputError
-        from selector.materials import load_materials
+        from selector.inputs.materials import load_materials
 
         if not x_axis or not y_axis:
             raise InputError("chart", "--x and --y are needed without --spec", "e.g. --x rho --y E")
@@ -330,7 +332,7 @@ def chart(
 )
 def report(spec, files, no_builtin, units, draws, seed, output) -> None:
     """Write a self-contained HTML design report for a SPEC file (opens offline, prints cleanly)."""
-    from selector.report import report_from_spec
+    from selector.api import report_from_spec
 
     path = report_from_spec(spec, output, files, no_builtin, units, draws, seed)
     click.echo(f"wrote {path}", err=True)
@@ -348,7 +350,7 @@ def report(spec, files, no_builtin, units, draws, seed, output) -> None:
 @click.option("--no-browser", is_flag=True, help="Do not open the default web browser.")
 def explore(spec, port, no_browser) -> None:
     """Explore a SPEC in a local web page on 127.0.0.1 (a bundled example without SPEC)."""
-    from selector import explore as explorer
+    from selector.outputs import explore as explorer
 
     explorer.serve(spec, port, not no_browser, echo=click.echo)
 

@@ -7,7 +7,7 @@ import math
 import pandas as pd
 import pytest
 
-from selector.properties import PROPERTIES, RATINGS, data_columns
+from selector.inputs.properties import PROPERTIES, RATINGS, data_columns
 
 
 def make_table(rows: list[dict]) -> pd.DataFrame:

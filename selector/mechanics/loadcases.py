@@ -23,6 +23,8 @@ from selector.errors import InputError
 from selector.mechanics.monomial import Monomial as M
 from selector.suggest import did_you_mean
 
+FREE_VARIABLES = ("scale", "depth", "width", "thickness", "wall", "none")
+
 FUNCTIONS = ("tie", "beam", "column", "shaft", "panel", "plate", "cylinder", "sphere", "spring")
 BEAM_SUPPORTS = ("cantilever", "simply-supported", "fixed-fixed")
 BEAM_LOADS = ("end", "centre", "uniform")

@@ -16,7 +16,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from selector.errors import InputError
-from selector.properties import FAMILIES
+from selector.inputs.properties import FAMILIES
 from selector.suggest import did_you_mean
 
 __all__ = ["FAMILY_LIMITS", "GROUP_LIMITS", "MODES", "ShapeLimit", "max_shape_factor"]
@@ -75,7 +75,7 @@ FAMILY_LIMITS: dict[str, ShapeLimit] = {
     "elastomer": _DEFAULT,
     "mineral": _DEFAULT,
 }
-"""One limit per family of ``selector.properties.FAMILIES``; check ``from_paper`` before quoting."""
+"""One limit per family of ``selector.inputs.properties.FAMILIES``; check ``from_paper`` before quoting."""
 
 assert set(FAMILY_LIMITS) == set(FAMILIES), "every family needs a shape limit"
 

@@ -10,9 +10,9 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from selector.errors import InputError, SelectorError
+from selector.inputs.properties import FAMILIES
 from selector.mechanics import sections as s
 from selector.mechanics import shape_limits
-from selector.properties import FAMILIES
 
 TIGHT = 1e-12
 """Two exact routes to the same number differ only by rounding."""

@@ -12,9 +12,9 @@ import math
 import pytest
 from anastruct import SystemElements
 
+from selector.inputs.spec import spec_from_dict
 from selector.mechanics.loadcases import BEAM_CONSTANTS, EULER_N2, load_case
-from selector.selection import select
-from selector.spec import spec_from_dict
+from selector.pipeline.selection import select
 
 from ..conftest import make_table
 

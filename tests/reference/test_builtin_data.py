@@ -15,7 +15,7 @@ import periodictable
 import pytest
 
 import materials_db
-from selector.properties import (
+from selector.inputs.properties import (
     FAMILIES,
     NOT_APPLICABLE,
     PROPERTIES,

@@ -10,7 +10,7 @@ from __future__ import annotations
 
 import pytest
 
-from selector.derive import derive
+from selector.pipeline.derive import derive
 
 # (function, constraint, objective, free, support, expected exponents)
 CASES = [

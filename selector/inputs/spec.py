@@ -1,0 +1,228 @@
+"""The spec: a design requirement read from TOML (or built in Python), validated with pydantic.
+
+Errors name the field path, the value and what is expected, and suggest the
+nearest valid key for a misspelt one.
+"""
+
+from __future__ import annotations
+
+import tomllib
+from pathlib import Path
+from typing import Annotated, Any
+
+from pydantic import AfterValidator, BaseModel, ConfigDict, Field, ValidationError, field_validator
+
+from selector.errors import InputError
+from selector.inputs.properties import FAMILIES, PROPERTIES, RATINGS
+from selector.mechanics.loadcases import CONSTRAINTS, FREE_VARIABLES, FUNCTIONS
+from selector.mechanics.objectives import OBJECTIVES
+from selector.suggest import did_you_mean
+
+EXAMPLES = Path(__file__).resolve().parents[1] / "examples"  # the bundled example specs
+DEMO_SPEC = "camera-dolly-boom.toml"
+
+QUANTITY_FIELDS: dict[str, str] = {
+    "length": "m",
+    "force": "N",
+    "torque": "N*m",
+    "pressure": "Pa",
+    "energy": "J",
+    "width": "m",
+    "radius": "m",
+}
+DIMENSION_FIELDS = ("b", "h", "d", "t", "tf", "tw")
+
+
+def _one_of(choices: tuple[str, ...], noun: str) -> AfterValidator:
+    """A validator accepting only ``choices``, suggesting the nearest one otherwise."""
+
+    def check(value: str) -> str:
+        if value not in choices:
+            raise ValueError(f"{value!r} is not {noun}; {did_you_mean(value, choices)}")
+        return value
+
+    return AfterValidator(check)
+
+
+class _Strict(BaseModel):
+    model_config = ConfigDict(extra="forbid", frozen=True)
+
+
+class Part(_Strict):
+    """What the part is and what it carries. Quantities are text with units ("1.8 m")."""
+
+    function: Annotated[str, _one_of(FUNCTIONS, "a function")]
+    support: str | None = None
+    load: str | None = None
+    length: str | None = None
+    force: str | None = None
+    torque: str | None = None
+    pressure: str | None = None
+    energy: str | None = None
+    width: str | None = None
+    radius: str | None = None
+
+
+class SectionSpec(_Strict):
+    """The cross-section: its shape, what may change, and its reference dimensions."""
+
+    shape: str = "generic"
+    free: Annotated[str, _one_of(FREE_VARIABLES, "a free variable")] = "scale"
+    b: str | None = None
+    h: str | None = None
+    d: str | None = None
+    t: str | None = None
+    tf: str | None = None
+    tw: str | None = None
+
+    @property
+    def dims(self) -> dict[str, str]:
+        """The dimensions given, name → quantity text."""
+        return {k: getattr(self, k) for k in DIMENSION_FIELDS if getattr(self, k) is not None}
+
+
+class Objective(_Strict):
+    minimize: Annotated[str, _one_of(OBJECTIVES, "an objective")] = "mass"
+
+
+class Constraint(_Strict):
+    """One requirement the part must meet; limits are quantities with units."""
+
+    type: Annotated[str, _one_of(CONSTRAINTS, "a constraint type")]
+    max_deflection: str | None = None
+    max_twist: str | None = None
+    safety_factor: float = Field(default=1.0, gt=0, allow_inf_nan=False)
+
+
+class Materials(_Strict):
+    files: list[str] = Field(default_factory=list)
+    builtin: bool = True
+
+
+SCREEN_KEYS = (*PROPERTIES, *RATINGS, "families", "exclude_families", "exclude")
+
+
+class Spec(_Strict):
+    """A design requirement: function, objective, constraints, free variable, screens."""
+
+    title: str = "Untitled part"
+    notes: str = ""
+    index: str | None = None
+    units: str = "si"
+    part: Part
+    section: SectionSpec = Field(default_factory=SectionSpec)
+    objective: Objective = Field(default_factory=Objective)
+    constraint: list[Constraint] = Field(default_factory=list)
+    screen: dict[str, Any] = Field(default_factory=dict)
+    materials: Materials = Field(default_factory=Materials)
+
+    @field_validator("units")
+    @classmethod
+    def _known_units(cls, value: str) -> str:
+        if value not in ("si", "us"):
+            raise ValueError(f"{value!r} is not a units system; expected 'si' or 'us'")
+        return value
+
+    @field_validator("screen")
+    @classmethod
+    def _known_screens(cls, value: dict[str, Any]) -> dict[str, Any]:
+        for key, limit in value.items():
+            if key not in SCREEN_KEYS:
+                raise ValueError(f"unknown screen {key!r}; {did_you_mean(key, SCREEN_KEYS)}")
+            if key in ("families", "exclude_families"):
+                if not isinstance(limit, list) or any(f not in FAMILIES for f in limit):
+                    bad = limit if not isinstance(limit, list) else [f for f in limit if f not in FAMILIES]
+                    raise ValueError(f"{key} = {bad!r}; expected a list of: {', '.join(FAMILIES)}")
+            elif key == "exclude":
+                if not isinstance(limit, list) or not all(isinstance(i, str) for i in limit):
+                    raise ValueError(f"exclude = {limit!r}; expected a list of class ids")
+            elif not isinstance(limit, str):
+                raise ValueError(f'screen {key} = {limit!r}; expected text such as ">= 60 degC"')
+        return value
+
+
+def _location(loc: tuple[int | str, ...]) -> str:
+    out = ""
+    for part in loc:
+        out += f"[{part}]" if isinstance(part, int) else (f".{part}" if out else str(part))
+    return out
+
+
+def _fields_of(model: type[BaseModel], loc: tuple[int | str, ...]) -> list[str]:
+    """Valid field names at ``loc`` inside ``model`` (for suggestions)."""
+    current: Any = model
+    for part in loc[:-1]:
+        if isinstance(part, int):
+            continue
+        info = current.model_fields.get(part)
+        if info is None:
+            return []
+        ann = info.annotation
+        args = getattr(ann, "__args__", ())
+        candidates = [ann, *args]
+        current = next((c for c in candidates if isinstance(c, type) and issubclass(c, BaseModel)), None)
+        if current is None:
+            return []
+    return list(current.model_fields)
+
+
+def spec_from_dict(data: dict[str, Any], source: str = "spec") -> Spec:
+    """Validate a spec given as nested dicts; raises InputError on the first problem."""
+    try:
+        return Spec.model_validate(data)
+    except ValidationError as exc:
+        errors = exc.errors()
+        first = errors[0]
+        loc = tuple(first["loc"])
+        path = _location(loc)
+        more = f" (and {len(errors) - 1} more problems)" if len(errors) > 1 else ""
+        if first["type"] == "extra_forbidden":
+            key = str(loc[-1])
+            raise InputError(
+                f"{source}: {path}", f"unknown key {key!r}{more}", did_you_mean(key, _fields_of(Spec, loc))
+            ) from None
+        if first["type"] == "missing":
+            raise InputError(
+                f"{source}: {path}", f"required field is missing{more}", "see examples/"
+            ) from None
+        message = first["msg"].removeprefix("Value error, ")
+        what, _, expected = message.partition("; ")
+        value = first.get("input")
+        if not expected:
+            what, expected = f"{value!r} is not valid", message
+        raise InputError(f"{source}: {path}", what + more, expected) from None
+
+
+def load_spec(path: str | Path) -> Spec:
+    """Read and validate a spec file (TOML)."""
+    file = Path(path)
+    try:
+        text = file.read_text(encoding="utf-8")
+    except FileNotFoundError:
+        raise InputError(str(file), "no such file", "the path of a spec file (TOML)") from None
+    except (OSError, UnicodeDecodeError) as exc:
+        raise InputError(
+            str(file), f"cannot be read ({exc.__class__.__name__})", "a UTF-8 TOML file"
+        ) from None
+    try:
+        data = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        raise InputError(str(file), f"is not valid TOML: {exc}", "TOML as in examples/") from None
+    return spec_from_dict(data, source=str(file))
+
+
+def parse_dimension_args(shape: str, args: tuple[str, ...] | list[str]) -> dict[str, float]:
+    """Parse ``("b=100mm", "h=200 mm")`` into SI values (moduli such as E_face in Pa)."""
+    from selector.inputs.units import magnitude_in
+
+    dims: dict[str, float] = {}
+    for arg in args:
+        name, sep, text = arg.partition("=")
+        if not sep or not name.strip() or not text.strip():
+            raise InputError(f"section {shape}", f"cannot read {arg!r}", "NAME=VALUE with a unit, e.g. t=2mm")
+        name = name.strip()
+        unit = "Pa" if name.startswith("E_") else "m"
+        if name in dims:
+            raise InputError(f"section {shape}: {name}", f"{name} is given twice", "each dimension once")
+        dims[name] = magnitude_in(text.strip(), unit, f"section {shape}: {name}")
+    return dims

@@ -1,0 +1,163 @@
+"""Writing results to files, atomically (temporary file, then rename)."""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Sequence
+from pathlib import Path
+from typing import Any
+
+import numpy as np
+import pandas as pd
+
+from selector.outputs.files import check_output, ensure_folder, write_bytes_atomic, write_text_atomic
+from selector.outputs.tables import flat_frame
+
+
+def _plain(value: Any) -> Any:
+    """A cell value for a spreadsheet: numbers stay numbers, NaN and ±inf become blank, lists text."""
+    if isinstance(value, bool | np.bool_):
+        return bool(value)
+    if isinstance(value, int | np.integer):
+        return int(value)
+    if isinstance(value, float | np.floating):
+        return float(value) if math.isfinite(value) else None
+    if isinstance(value, list | tuple):
+        return "; ".join(str(v) for v in value)
+    if value is None or value is pd.NA:
+        return None
+    return value
+
+
+def spec_rows(selection: Any) -> list[tuple[str, str, Any]]:
+    """The spec as (group, field, value) rows, then the assumptions the run made."""
+    spec = selection.spec
+    rows: list[tuple[str, str, Any]] = [("spec", "title", spec.title)]
+    if spec.notes:
+        rows.append(("spec", "notes", spec.notes))
+    data = spec.model_dump(exclude={"title", "notes"})
+    for group in ("part", "section", "objective"):
+        for key, value in data[group].items():
+            if value is not None:
+                rows.append((group, key, value))
+    for i, c in enumerate(data["constraint"]):
+        for key, value in c.items():
+            if value is not None:
+                rows.append((f"constraint[{i}]", key, value))
+    for key, value in data["screen"].items():
+        rows.append(("screen", key, ", ".join(value) if isinstance(value, list) else value))
+    rows.append(("materials", "builtin", data["materials"]["builtin"]))
+    for f in data["materials"]["files"]:
+        rows.append(("materials", "file", f))
+    if spec.index is not None:
+        rows.append(("spec", "index", spec.index))
+    rows.append(("spec", "units", spec.units))
+    rows.append(("result", "merit index (maximise)", f"M = {selection.index_text}"))
+    rows.append(("result", "ranked by", selection.ranked_by if selection.sized else "merit index"))
+    models: list[str] = []
+    for d in selection.derivations:
+        rows.append(("assumption", f"{d.constraint} constraint", d.case.equations.get(d.constraint, "")))
+        if d.geometry.description not in models:
+            models.append(d.geometry.description)
+    rows += [("assumption", "section model", m) for m in models]
+    for note in selection.notes:
+        rows.append(("assumption", "note", note))
+    rows.append(("caution", "preliminary selection", selection.caution))
+    return rows
+
+
+def _sheet(workbook: Any, title: str, header: list[str], rows: list[list[Any]], wrap: tuple[str, ...] = ()):
+    """Add a sheet: bold frozen header, numbers as numbers, column widths from the content."""
+    from openpyxl.styles import Alignment, Font
+    from openpyxl.utils import get_column_letter
+
+    sheet = workbook.create_sheet(title)
+    sheet.append(header)
+    for row in rows:
+        sheet.append([_plain(v) for v in row])
+    for cell in sheet[1]:
+        cell.font = Font(bold=True)
+        cell.alignment = Alignment(vertical="top", wrap_text=True)
+    sheet.freeze_panes = "A2"
+    for i, name in enumerate(header, 1):
+        letter = get_column_letter(i)
+        cells = [sheet.cell(r, i).value for r in range(2, sheet.max_row + 1)]
+        longest = max(
+            [len(name) * 0.9, *(12 if isinstance(v, float) else len(str(v)) for v in cells if v is not None)],
+            default=8,
+        )
+        sheet.column_dimensions[letter].width = max(8, min(longest + 2, 70 if name in wrap else 45))
+        if name in wrap:
+            for r in range(2, sheet.max_row + 1):
+                sheet.cell(r, i).alignment = Alignment(vertical="top", wrap_text=True)
+    if rows:
+        sheet.auto_filter.ref = sheet.dimensions
+    return sheet
+
+
+def xlsx_bytes(selection: Any, units: str = "si") -> bytes:
+    """The workbook: shortlist, rejected classes, sized parts and the spec with its assumptions."""
+    import io
+
+    from openpyxl import Workbook
+
+    workbook = Workbook()
+    workbook.remove(workbook.active)
+    short = flat_frame(selection, units)
+    _sheet(workbook, "shortlist", list(short.columns), short.to_numpy(dtype=object).tolist(), ("reasons",))
+    rejected = selection.rejected
+    _sheet(
+        workbook,
+        "rejected",
+        ["id", "name", "family", "status", "reasons"],
+        [
+            [r.id, r.name, r.family, r.status, "; ".join(r.reasons)]
+            for r in rejected[["id", "name", "family", "status", "reasons"]].itertuples(index=False)
+        ],
+        ("reasons",),
+    )
+    if selection.has_sizes:
+        after = list(short.columns[short.columns.get_loc("close_to_leader") + 1 :])
+        keep = ["rank", "id", "name", *(c for c in after if c != "reasons")]
+        parts = short[keep]
+        _sheet(workbook, "sized parts", keep, parts.to_numpy(dtype=object).tolist(), ("warnings",))
+    else:
+        why = [n for n in selection.notes if "to size parts" in n] or [
+            "the spec gives no loads to size parts"
+        ]
+        _sheet(workbook, "sized parts", ["note"], [[w] for w in why], ("note",))
+    _sheet(workbook, "spec", ["group", "field", "value"], [list(r) for r in spec_rows(selection)], ("value",))
+    buffer = io.BytesIO()
+    workbook.save(buffer)
+    return buffer.getvalue()
+
+
+def write_xlsx(selection: Any, path: Path, units: str = "si", protect: Sequence[str | Path] = ()) -> Path:
+    """Write the workbook atomically; refuses to write over any path in ``protect``."""
+    check_output(path, protect)
+    ensure_folder(path)
+    write_bytes_atomic(Path(path), xlsx_bytes(selection, units))
+    return Path(path)
+
+
+def write_selection(
+    selection: Any,
+    path: str | Path,
+    units: str | None = None,
+    fmt: str | None = None,
+    protect: Sequence[str | Path] = (),
+    top: int | None = None,
+    show_all: bool = False,
+) -> Path:
+    """Write the shortlist as CSV, JSON, Markdown or XLSX (format from the extension by default)."""
+    from selector.outputs import tables
+
+    units = units or selection.spec.units
+    fmt = fmt or tables.format_for(str(path))
+    check_output(path, protect)
+    ensure_folder(path)
+    if fmt == "xlsx":
+        return write_xlsx(selection, Path(path), units, protect)
+    text = tables.render_selection(selection, fmt, units, top, show_all)
+    write_text_atomic(Path(path), text + "\n")
+    return Path(path)

@@ -1,0 +1,487 @@
+"""Turn results into tables for people (terminal, Markdown) and machines (CSV, JSON).
+
+Only presentation lives here: unit conversion for display, significant figures,
+and the JSON shape in which every physical number carries its unit.
+"""
+
+from __future__ import annotations
+
+import json
+import math
+from collections.abc import Sequence
+from typing import Any
+
+import numpy as np
+import pandas as pd
+
+from selector.errors import InputError
+from selector.inputs.properties import PROPERTIES, RATINGS
+from selector.inputs.units import format_number
+
+SUMMARY_PROPERTIES = ("rho", "E", "sigma_y", "sigma_ts", "T_max", "price")
+LENGTH_UNIT = {"si": "mm", "us": "in"}
+MASS_UNIT = {"si": "kg", "us": "lb"}
+_LENGTH_FACTOR = {"si": 1e3, "us": 1 / 0.0254}
+_MASS_FACTOR = {"si": 1.0, "us": 1 / 0.45359237}
+_STRESS = {"si": ("MPa", 1e-6), "us": ("ksi", 1 / 6.894757293168361e6)}
+ANGLE_UNIT = "deg"
+
+
+def format_for(path: str | None) -> str:
+    """Output format from a file name's extension (table when writing to the terminal)."""
+    if not path:
+        return "table"
+    ext = path.rsplit(".", 1)[-1].lower() if "." in path else ""
+    formats = {"csv": "csv", "json": "json", "md": "md", "xlsx": "xlsx", "txt": "table"}
+    if ext not in formats:
+        raise InputError(
+            f"-o {path}", f"unknown file extension {ext!r}", "one of .csv, .json, .md, .xlsx, .txt"
+        )
+    return formats[ext]
+
+
+def property_unit(symbol: str, units: str) -> str:
+    """Display unit label of a property in the chosen system."""
+    prop = PROPERTIES[symbol]
+    return prop.us_label if units == "us" else prop.label
+
+
+def property_values(table: pd.DataFrame, symbol: str, units: str) -> tuple[np.ndarray, np.ndarray]:
+    """(low, high) of a property in display units."""
+    prop = PROPERTIES[symbol]
+    low = table[prop.low].to_numpy(dtype=float)
+    high = table[prop.high].to_numpy(dtype=float)
+    if units == "us" and prop.us != prop.stored:
+        from selector.inputs.units import convert
+
+        low, high = convert(low, prop.stored, prop.us), convert(high, prop.stored, prop.us)
+    return low, high
+
+
+def _range(low: float, high: float) -> str:
+    if np.isnan(low) and np.isnan(high):
+        return "n/a"
+    if low == high:
+        return format_number(low)
+    return f"{format_number(low)}–{format_number(high)}"
+
+
+def materials_frame(
+    table: pd.DataFrame, families: Sequence[str] = (), search: str | None = None, units: str = "si"
+) -> pd.DataFrame:
+    """The classes with every property's low and high in display units (one column each)."""
+    rows = table
+    if families:
+        rows = rows[rows["family"].isin(families)]
+    if search:
+        text = search.lower()
+        rows = rows[
+            rows["id"].str.lower().str.contains(text, regex=False)
+            | rows["name"].str.lower().str.contains(text, regex=False)
+        ]
+    out = rows[["id", "name", "family"]].copy()
+    for symbol in PROPERTIES:
+        unit = property_unit(symbol, units)
+        low, high = property_values(rows, symbol, units)
+        out[f"{symbol}_low [{unit}]"] = low
+        out[f"{symbol}_high [{unit}]"] = high
+    for rating in RATINGS:
+        out[rating] = rows[rating].to_numpy()
+    out["source"] = rows["source"].to_numpy()
+    return out.reset_index(drop=True)
+
+
+def materials_summary(table: pd.DataFrame, units: str = "si") -> pd.DataFrame:
+    """A narrow view for people: id, name, family and the ranges of a few key properties."""
+    out = table[["id", "name", "family"]].copy()
+    for symbol in SUMMARY_PROPERTIES:
+        low, high = property_values(table, symbol, units)
+        out[f"{symbol} [{property_unit(symbol, units)}]"] = [
+            _range(lo, hi) for lo, hi in zip(low, high, strict=True)
+        ]
+    return out.reset_index(drop=True)
+
+
+def class_frame(table: pd.DataFrame, class_id: str, units: str = "si") -> pd.DataFrame:
+    """One class as a property / low / high / unit table."""
+    match = table[table["id"] == class_id]
+    if match.empty:
+        from selector.suggest import did_you_mean
+
+        raise InputError(
+            "materials show", f"no class with id {class_id!r}", did_you_mean(class_id, table["id"])
+        )
+    row = match.iloc[[0]]
+    records = [
+        {"property": "name", "low": row["name"].iat[0], "high": "", "unit": ""},
+        {"property": "family", "low": row["family"].iat[0], "high": "", "unit": ""},
+    ]
+    for symbol, prop in PROPERTIES.items():
+        low, high = property_values(row, symbol, units)
+        records.append(
+            {
+                "property": f"{symbol} ({prop.name})",
+                "low": low[0],
+                "high": high[0],
+                "unit": property_unit(symbol, units),
+            }
+        )
+    for rating, meaning in RATINGS.items():
+        records.append(
+            {"property": f"{rating} ({meaning})", "low": row[rating].iat[0], "high": "", "unit": ""}
+        )
+    for text in ("note", "source", "origin"):
+        if text in row:
+            records.append({"property": text, "low": row[text].iat[0], "high": "", "unit": ""})
+    return pd.DataFrame(records)
+
+
+def _cell(value: Any) -> str:
+    if isinstance(value, float | np.floating):
+        return "n/a" if math.isnan(value) else format_number(float(value))
+    if isinstance(value, list | tuple):
+        return "; ".join(str(v) for v in value)
+    if value is None or value is pd.NA:
+        return ""
+    return str(value)
+
+
+def render(frame: pd.DataFrame, fmt: str) -> str:
+    """A frame as a terminal table, CSV, JSON or Markdown."""
+    if fmt == "csv":
+        return frame.to_csv(index=False).rstrip("\n")
+    if fmt == "json":
+        return json.dumps(_json_records(frame), indent=2, allow_nan=False)
+    cells = [[_cell(v) for v in row] for row in frame.itertuples(index=False)]
+    header = [str(c) for c in frame.columns]
+    if fmt == "md":
+        lines = ["| " + " | ".join(header) + " |", "|" + "|".join("---" for _ in header) + "|"]
+        lines += ["| " + " | ".join(c.replace("|", "\\|") for c in row) + " |" for row in cells]
+        return "\n".join(lines)
+    widths = [max(len(h), *(len(r[i]) for r in cells)) if cells else len(h) for i, h in enumerate(header)]
+    lines = ["  ".join(h.ljust(w) for h, w in zip(header, widths, strict=True)).rstrip()]
+    lines.append("  ".join("-" * w for w in widths))
+    lines += ["  ".join(c.ljust(w) for c, w in zip(row, widths, strict=True)).rstrip() for row in cells]
+    return "\n".join(lines)
+
+
+def _json_value(value: Any) -> Any:
+    if isinstance(value, float | np.floating):
+        return None if not math.isfinite(value) else float(value)
+    if isinstance(value, np.integer):
+        return int(value)
+    if value is pd.NA:
+        return None
+    return value
+
+
+def _json_records(frame: pd.DataFrame) -> list[dict[str, Any]]:
+    """Records where a column named ``name [unit]`` becomes ``{"value": .., "unit": ..}``."""
+    out = []
+    for row in frame.to_dict(orient="records"):
+        record: dict[str, Any] = {}
+        for key, value in row.items():
+            if isinstance(key, str) and key.endswith("]") and " [" in key:
+                name, unit = key[:-1].split(" [", 1)
+                record[name] = {"value": _json_value(value), "unit": unit}
+            else:
+                record[key] = _json_value(value)
+        out.append(record)
+    return out
+
+
+def render_derivation(d: Any, fmt: str) -> str:
+    """The derived index and its steps."""
+    if fmt == "json":
+        return json.dumps(
+            {
+                "function": d.case.function,
+                "load_case": d.case.title,
+                "constraint": d.constraint,
+                "objective": d.objective,
+                "free": d.geometry.free,
+                "index": d.exponents,
+                "index_text": d.index_text,
+                "index_latex": d.index_latex,
+                "steps": list(d.steps),
+                "steps_latex": list(d.steps_latex),
+            },
+            indent=2,
+        )
+    if fmt == "md":
+        lines = [
+            f"**Merit index:** $M = {d.index_latex}$",
+            "",
+            *[f"{i}. {s}" for i, s in enumerate(d.steps, 1)],
+        ]
+        return "\n".join(lines)
+    if fmt == "csv":
+        return "symbol,exponent\n" + "\n".join(f"{k},{v:g}" for k, v in d.exponents.items())
+    lines = [
+        f"{d.case.title}: minimise {d.objective}, {d.constraint} constraint, free: {d.geometry.free}",
+        "",
+    ]
+    lines += [f"  {i}. {s}" for i, s in enumerate(d.steps, 1)]
+    lines += ["", f"Merit index (maximise): M = {d.index_text}"]
+    return "\n".join(lines)
+
+
+def index_unit(exponents: dict[str, float]) -> str:
+    """Unit of an index computed in stored units, e.g. ``GPa^0.5/(kg/m³)``."""
+    up, down = [], []
+    for s, p in exponents.items():
+        label = PROPERTIES[s].label
+        label = f"({label})" if ("/" in label or "·" in label or " " in label) else label
+        part = label if abs(p) == 1 else f"{label}^{abs(p):.3g}"
+        (up if p > 0 else down).append(part)
+    top = "·".join(up) or "1"
+    if not down:
+        return top
+    return f"{top}/" + ("·".join(down) if len(down) == 1 else "(" + "·".join(down) + ")")
+
+
+def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -> pd.DataFrame:
+    """The shortlist (and optionally the rejected classes) with units in the headers."""
+    table = selection.table if show_all else selection.shortlist
+    exponents = selection.index_exponents
+    unit = index_unit(exponents) if exponents is not None else "as typed"
+    out = pd.DataFrame(
+        {
+            "rank": table["rank"],
+            "id": table["id"],
+            "name": table["name"],
+            "family": table["family"],
+            "status": table["status"],
+            f"index [{unit}]": table["index"],
+            f"index_low [{unit}]": table["index_low"],
+            f"index_high [{unit}]": table["index_high"],
+            "close_to_leader": table["close_to_leader"].astype(bool),
+        }
+    )
+    if "index_with_shape" in table and table["index_with_shape"].notna().any():
+        out.insert(
+            out.columns.get_loc("close_to_leader"), f"index_with_shape [{unit}]", table["index_with_shape"]
+        )
+    if selection.has_sizes:
+        lf, mf = _LENGTH_FACTOR[units], _MASS_FACTOR[units]
+        lu, mu = LENGTH_UNIT[units], MASS_UNIT[units]
+        su, sf = _STRESS[units]
+        feasible = table["feasible"]
+        out["dimensions"] = [
+            {k: v * lf for k, v in d.items() if k != "V"} if isinstance(d, dict) else None
+            for d in table["dimensions"]
+        ]
+        out[f"mass [{mu}]"] = table["mass"].where(feasible) * mf
+        out["cost [USD]"] = table["cost"].where(feasible)
+        out[f"co2 [{mu} CO2e]"] = table["co2"].where(feasible) * mf
+        out[f"deflection [{lu}]"] = table["deflection"].where(feasible) * lf
+        if "twist" in table and table["twist"].notna().any():
+            out[f"twist [{ANGLE_UNIT}]"] = np.degrees(table["twist"].where(feasible))
+        out[f"stress [{su}]"] = table["stress"].where(feasible) * sf
+        out["utilisation"] = table["utilisation"]
+        out["governing"] = table["governing"]
+        out["warnings"] = table["size_warnings"]
+    out["reasons"] = table["reasons"]
+    return out.reset_index(drop=True)
+
+
+def flat_frame(selection: Any, units: str = "si", show_all: bool = False) -> pd.DataFrame:
+    """The shortlist frame with one column per dimension and per constraint's utilisation.
+
+    Columns keep their units in the headers (``d [mm]``, ``mass [kg]``); ``utilisation_<constraint>``
+    is the ratio of the constraint's demand to its limit (1 at the limit); reasons and warnings
+    are joined with "; ".
+    """
+    out = selection_frame(selection, units, show_all)
+    if "dimensions" in out:
+        lu = LENGTH_UNIT[units]
+        names = sorted({k for d in out["dimensions"] if isinstance(d, dict) for k in d})
+        at = out.columns.get_loc("dimensions")
+        for offset, k in enumerate(names):
+            values = [d.get(k) if isinstance(d, dict) else None for d in out["dimensions"]]
+            out.insert(at + offset, f"{k} [{lu}]", pd.array(values, dtype="Float64").astype(float))
+        out = out.drop(columns="dimensions")
+    if "utilisation" in out:
+        kinds = [d.constraint for d in selection.derivations]
+        at = out.columns.get_loc("utilisation")
+        for offset, k in enumerate(kinds):
+            values = [u.get(k) if isinstance(u, dict) else None for u in out["utilisation"]]
+            out.insert(at + offset, f"utilisation_{k}", pd.array(values, dtype="Float64").astype(float))
+        out = out.drop(columns="utilisation")
+    for col in ("warnings", "reasons"):
+        if col in out:
+            out[col] = ["; ".join(v) if isinstance(v, list | tuple) else "" for v in out[col]]
+    if "rank" in out and out["rank"].notna().all():
+        out["rank"] = out["rank"].astype(int)
+    if selection.has_sizes:
+        out["caution"] = selection.caution
+    return out
+
+
+def render_selection(
+    selection: Any, fmt: str, units: str = "si", top: int | None = None, show_all: bool = False
+) -> str:
+    """The shortlist in the chosen format; the table form adds the derivation and the caution."""
+    frame = selection_frame(selection, units, show_all)
+    if top:
+        frame = frame[(frame["rank"].isna()) | (frame["rank"] <= top)] if show_all else frame.head(top)
+    if fmt == "json":
+        records = _json_records(frame)
+        lu = LENGTH_UNIT[units]
+        for r in records:
+            if r.get("dimensions"):
+                r["dimensions"] = {k: {"value": v, "unit": lu} for k, v in r["dimensions"].items()}
+            if "rank" in r and r["rank"] is not None:
+                r["rank"] = int(r["rank"])
+            if selection.has_sizes:
+                r["caution"] = selection.caution
+        return json.dumps(records, indent=2, allow_nan=False, default=_json_value)
+    if fmt == "csv":
+        flat = flat_frame(selection, units, show_all)
+        if top:
+            flat = flat[flat["rank"].isna() | (flat["rank"] <= top)] if show_all else flat.head(top)
+        return flat.to_csv(index=False).rstrip("\n")
+    shown = _compact(frame, units)
+    body = render(shown, "md" if fmt == "md" else "table")
+    if selection.derivations:
+        d = selection.derivations[0]
+        head = [f"{selection.spec.title}: {d.case.title}; minimise {d.objective}"]
+    else:
+        head = [selection.spec.title]
+    head.append(f"merit index (maximise): M = {selection.index_text}")
+    shown = selection.derivations[1:] if selection.expression is None else selection.derivations
+    head += [f"also: {x.constraint} index M = {x.index_text}" for x in shown]
+    head += [f"note: {n}" for n in selection.notes]
+    ranked = "ranked by " + (f"{selection.ranked_by} of the sized part" if selection.sized else "merit index")
+    foot = [
+        f"{len(selection.shortlist)} candidates ({ranked}); {len(selection.rejected)} rejected"
+        + ("" if show_all else " (--all lists them with reasons)"),
+        "* its "
+        + ("objective" if selection.sized else "index")
+        + " range overlaps the leader's: too close to call",
+        "",
+        f"CAUTION: {selection.caution}",
+    ]
+    return "\n".join([*head, "", body, "", *foot])
+
+
+def _util_text(u: Any) -> str:
+    if not isinstance(u, dict):
+        return ""
+    return ", ".join(f"{k} {v:.2f}" for k, v in u.items())
+
+
+def _compact(frame: pd.DataFrame, units: str) -> pd.DataFrame:
+    """Fewer, narrower columns for people."""
+    index_col = next(c for c in frame.columns if c.startswith("index ["))
+    out = pd.DataFrame(
+        {
+            "rank": [
+                ("" if pd.isna(r) else f"{int(r)}{'*' if c else ''}")
+                for r, c in zip(frame["rank"], frame["close_to_leader"], strict=True)
+            ],
+            "class": frame["name"],
+            "family": frame["family"],
+            "status": frame["status"],
+            index_col: frame[index_col],
+        }
+    )
+    if "dimensions" in frame:
+        lu = LENGTH_UNIT[units]
+        out[f"size [{lu}]"] = [
+            " ".join(f"{k}={format_number(v)}" for k, v in d.items()) if isinstance(d, dict) else "–"
+            for d in frame["dimensions"]
+        ]
+        for col in frame.columns:
+            if col.startswith(("mass [", "cost [", "co2 [")):
+                out[col] = frame[col]
+        out["governing"] = frame["governing"].fillna("–")
+        out["utilisation"] = [_util_text(u) for u in frame["utilisation"]]
+        notes = [("; ".join(w) if isinstance(w, list) else "") for w in frame["warnings"]]
+        reasons = ["; ".join(r) for r in frame["reasons"]]
+        out["notes"] = ["; ".join(x for x in pair if x) for pair in zip(notes, reasons, strict=True)]
+    else:
+        out["reasons"] = ["; ".join(r) for r in frame["reasons"]]
+    return out
+
+
+SECTION_ROWS = (
+    # key, label, SI scale to (mm-based) display, mm power, from the Section
+    ("area", "area A", 2),
+    ("centroid", "centroid (cx, cy)", 1),
+    ("Ixx", "second moment Ixx", 4),
+    ("Iyy", "second moment Iyy", 4),
+    ("Ixy", "product of area Ixy", 4),
+    ("I11", "principal I11", 4),
+    ("I22", "principal I22", 4),
+    ("Zx_top", "section modulus Zx top", 3),
+    ("Zx_bottom", "section modulus Zx bottom", 3),
+    ("Zy_left", "section modulus Zy left", 3),
+    ("Zy_right", "section modulus Zy right", 3),
+    ("rx", "radius of gyration rx", 1),
+    ("ry", "radius of gyration ry", 1),
+    ("J", "torsion constant J", 4),
+    ("Zt", "torsional modulus Zt", 3),
+)
+
+
+def section_values(section: Any, units: str = "si") -> dict[str, dict[str, Any]]:
+    """Every reported section property as {"value": ..., "unit": ...} in mm- or inch-based units."""
+    length, factor = ("mm", 1e3) if units == "si" else ("in", 1 / 0.0254)
+    sup = {1: "", 2: "^2", 3: "^3", 4: "^4"}
+    raw = {
+        "area": section.A,
+        "Ixx": section.Ixx,
+        "Iyy": section.Iyy,
+        "Ixy": section.Ixy,
+        "I11": section.I11,
+        "I22": section.I22,
+        "Zx_top": section.Zx_top,
+        "Zx_bottom": section.Zx_bottom,
+        "Zy_left": section.Zy_left,
+        "Zy_right": section.Zy_right,
+        "rx": section.rx,
+        "ry": section.ry,
+        "J": section.J,
+        "Zt": section.Zt,
+    }
+    out: dict[str, dict[str, Any]] = {}
+    for key, _label, power in SECTION_ROWS:
+        unit = f"{length}{sup[power]}"
+        if key == "centroid":
+            out[key] = {"value": [section.cx * factor, section.cy * factor], "unit": length}
+        else:
+            out[key] = {"value": raw[key] * factor**power, "unit": unit}
+    out["principal_angle"] = {"value": math.degrees(section.phi), "unit": "deg"}
+    out["shape_factor_bending"] = {"value": section.phi_bending_stiffness, "unit": "1"}
+    out["shape_factor_bending_strength"] = {"value": section.phi_bending_strength, "unit": "1"}
+    out["shape_factor_torsion"] = {"value": section.phi_torsion_stiffness, "unit": "1"}
+    out["shape_factor_torsion_strength"] = {"value": section.phi_torsion_strength, "unit": "1"}
+    return out
+
+
+def render_section(section: Any, fmt: str, units: str = "si") -> str:
+    """A section's properties in the chosen format."""
+    values = section_values(section, units)
+    if fmt == "json":
+        return json.dumps(
+            {"shape": section.shape, **values, "J_method": section.J_method, "Zt_method": section.Zt_method},
+            indent=2,
+        )
+    labels = {key: label for key, label, _ in SECTION_ROWS} | {
+        "principal_angle": "principal angle",
+        "shape_factor_bending": "shape factor, bending stiffness",
+        "shape_factor_bending_strength": "shape factor, bending strength",
+        "shape_factor_torsion": "shape factor, torsion stiffness",
+        "shape_factor_torsion_strength": "shape factor, torsion strength",
+    }
+    rows = []
+    for key, item in values.items():
+        v = item["value"]
+        shown = ", ".join(format_number(x, 4) for x in v) if isinstance(v, list) else format_number(v, 4)
+        rows.append({"property": labels[key], "value": shown, "unit": item["unit"]})
+    frame = pd.DataFrame(rows)
+    if fmt == "csv":
+        return frame.to_csv(index=False).rstrip("\n")
+    text = render(frame, "md" if fmt == "md" else "table")
+    return f"{text}\n\nJ: {section.J_method}\nZt: {section.Zt_method}"

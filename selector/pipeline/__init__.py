@@ -1,0 +1,1 @@
+"""The steps in order: screen, derive, size, rank, trade-offs, robustness; `select` runs them."""

@@ -1,0 +1,105 @@
+"""Ranking by merit index over property ranges.
+
+The low end of a class's index takes each property at its unfavourable end, the
+high end at its favourable end; the typical value uses each property's geometric
+mean. Candidates whose index range reaches the leader's are flagged as too
+close to call.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+
+import numpy as np
+import pandas as pd
+
+from selector.inputs.properties import PROPERTIES
+from selector.pipeline.screen import REJECTED
+
+
+def property_arrays(table: pd.DataFrame, symbols: list[str] | frozenset[str]) -> tuple[dict, dict, dict]:
+    """low, high and geometric-mean arrays (stored units) for each symbol."""
+    low, high, mid = {}, {}, {}
+    for s in symbols:
+        prop = PROPERTIES[s]
+        lo = table[prop.low].to_numpy(dtype=float)
+        hi = table[prop.high].to_numpy(dtype=float)
+        low[s], high[s] = lo, hi
+        with np.errstate(invalid="ignore"):
+            mid[s] = np.sqrt(lo * hi) if prop.log else (lo + hi) / 2
+    return low, high, mid
+
+
+def monomial_index(
+    table: pd.DataFrame, exponents: Mapping[str, float]
+) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """(low, high, typical) of ``Π property^exponent`` for every class, in stored units."""
+    low_v, high_v, mid_v = property_arrays(table, list(exponents))
+    n = len(table)
+    low, high, typ = np.ones(n), np.ones(n), np.ones(n)
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        for s, p in exponents.items():
+            unfavourable, favourable = (low_v[s], high_v[s]) if p > 0 else (high_v[s], low_v[s])
+            low = low * unfavourable**p
+            high = high * favourable**p
+            typ = typ * mid_v[s] ** p
+    return low, high, typ
+
+
+def rank_by_index(
+    screened: pd.DataFrame,
+    low: np.ndarray,
+    high: np.ndarray,
+    typical: np.ndarray,
+    conservative: bool = False,
+    needs: tuple[str, ...] = (),
+) -> pd.DataFrame:
+    """Add index columns, rank (1 = best) and a too-close-to-call flag.
+
+    Classes with no index value (a property missing) are rejected with a reason.
+    """
+    out = screened.copy()
+    out["index_low"], out["index_high"], out["index"] = low, high, typical
+    missing = ~np.isfinite(typical) | ~np.isfinite(low)
+    if missing.any():
+        reasons = out["reasons"].copy()
+        for i in np.flatnonzero(missing):
+            row = out.iloc[i]
+            absent = [
+                s for s in needs if np.isnan(row[PROPERTIES[s].low]) or np.isnan(row[PROPERTIES[s].high])
+            ]
+            reasons.iat[i] = [*reasons.iat[i], f"no data for {', '.join(absent) or 'the index'}"]
+        out["reasons"] = reasons
+        out.loc[missing, "status"] = REJECTED
+    key = out["index_low"] if conservative else out["index"]
+    return _rank(out, -key)
+
+
+def rerank_by_index(table: pd.DataFrame, conservative: bool = False) -> pd.DataFrame:
+    """Rank again by the index columns already in ``table`` (after more classes were rejected)."""
+    return _rank(table.copy(), -(table["index_low"] if conservative else table["index"]))
+
+
+def _rank(out: pd.DataFrame, key: pd.Series) -> pd.DataFrame:
+    """Rank the non-rejected rows by ascending ``key``; flag overlaps with the leader."""
+    alive = out["status"] != REJECTED
+    order = key.where(alive).rank(method="first")
+    out["rank"] = order.astype("Int64")
+    out["close_to_leader"] = False
+    if alive.any():
+        leader = out.loc[order.idxmin()]
+        out["close_to_leader"] = alive & (out["index_high"] >= leader["index_low"]) & (out["rank"] != 1)
+    return out.sort_values(["rank", "name"], na_position="last").reset_index(drop=True)
+
+
+def rank_by_value(sized: pd.DataFrame, value: str, low: str, high: str) -> pd.DataFrame:
+    """Rank sized parts by ascending objective ``value``; overlap flag on the value ranges."""
+    out = sized.copy()
+    alive = out["status"] != REJECTED
+    order = out[value].where(alive & np.isfinite(out[value])).rank(method="first")
+    out["rank"] = order.astype("Int64")
+    out["close_to_leader"] = False
+    if order.notna().any():
+        leader = out.loc[order.idxmin()]
+        out["close_to_leader"] = order.notna() & (out[low] <= leader[high]) & (out["rank"] != 1)
+    return out.sort_values(["rank", "name"], na_position="last").reset_index(drop=True)

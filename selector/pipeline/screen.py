@@ -1,0 +1,203 @@
+"""Screens: hard limits on properties, ratings and families.
+
+Each class *passes* (its whole range qualifies), passes *partly* (only part of
+its range does) or is *rejected*; every reason is kept.
+"""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Mapping
+from dataclasses import dataclass
+from typing import Any
+
+import numpy as np
+import pandas as pd
+
+from selector.errors import InputError
+from selector.inputs.properties import PROPERTIES, RATING_LEVELS, RATINGS
+from selector.inputs.units import format_number
+
+PASSES, PARTLY, REJECTED = "passes", "partly", "rejected"
+_LIMIT = re.compile(r"^\s*(>=|<=|>|<|≥|≤)\s*(.+?)\s*$")
+_OPS = {">": ">=", "≥": ">=", "<": "<=", "≤": "<="}
+TOLERANCE = 1e-9
+"""Relative slack on a limit, so unit round-off (212 °F → 100.00000000000006 °C) rejects nothing."""
+
+
+@dataclass(frozen=True)
+class Limit:
+    """One screen: ``symbol op value`` with the value in the stored unit (or a rating level)."""
+
+    symbol: str
+    op: str  # ">=" or "<="
+    value: float
+    text: str
+
+    @property
+    def is_rating(self) -> bool:
+        return self.symbol in RATINGS
+
+    def describe(self) -> str:
+        if self.is_rating:
+            return f"{self.symbol} {self.op} {RATING_LEVELS[int(self.value)]}"
+        return f"{self.symbol} {self.op} {format_number(self.value)} {PROPERTIES[self.symbol].label}"
+
+
+@dataclass(frozen=True)
+class Screens:
+    """All screens of a spec."""
+
+    limits: tuple[Limit, ...] = ()
+    families: tuple[str, ...] = ()
+    exclude_families: tuple[str, ...] = ()
+    exclude: tuple[str, ...] = ()
+
+
+def parse_limit(symbol: str, text: str, where: str = "screen") -> Limit:
+    """Parse ``">= 60 degC"`` (or ``">= good"`` for a rating) for property ``symbol``."""
+    loc = f"{where}.{symbol}"
+    match = _LIMIT.match(text) if isinstance(text, str) else None
+    if not match:
+        raise InputError(loc, f"cannot read limit {text!r}", 'a comparison and a value, e.g. ">= 60 degC"')
+    op = _OPS.get(match.group(1), match.group(1))
+    raw = match.group(2)
+    if symbol in RATINGS:
+        if raw not in RATING_LEVELS:
+            raise InputError(loc, f"{raw!r} is not a rating", f"one of: {', '.join(RATING_LEVELS)}")
+        return Limit(symbol, op, float(RATING_LEVELS.index(raw)), text)
+    prop = PROPERTIES[symbol]
+    if prop.stored in ("dimensionless", "percent"):
+        try:
+            return Limit(symbol, op, float(raw.rstrip("%").strip()), text)
+        except ValueError:
+            pass
+    from selector.inputs.units import magnitude_in
+
+    return Limit(symbol, op, magnitude_in(raw, prop.stored, loc), text)
+
+
+def parse_screens(screen: Mapping[str, Any], where: str = "screen") -> Screens:
+    """Turn a spec's ``[screen]`` table into Screens."""
+    limits = [parse_limit(k, v, where) for k, v in screen.items() if k in PROPERTIES or k in RATINGS]
+    return Screens(
+        limits=tuple(limits),
+        families=tuple(screen.get("families", ())),
+        exclude_families=tuple(screen.get("exclude_families", ())),
+        exclude=tuple(screen.get("exclude", ())),
+    )
+
+
+def _range_of(table: pd.DataFrame, limit: Limit) -> tuple[np.ndarray, np.ndarray]:
+    """(low, high) of the screened property (rating levels as numbers) for every class."""
+    if limit.is_rating:
+        levels = table[limit.symbol].map({v: k for k, v in enumerate(RATING_LEVELS)}).to_numpy(dtype=float)
+        return levels, levels
+    prop = PROPERTIES[limit.symbol]
+    return table[prop.low].to_numpy(dtype=float), table[prop.high].to_numpy(dtype=float)
+
+
+def _outcome(low: np.ndarray, high: np.ndarray, limit: Limit) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """(missing, fails, partly) masks of one limit over property ranges."""
+    missing = np.isnan(low) | np.isnan(high)
+    slack = TOLERANCE * max(abs(limit.value), 1.0)
+    if limit.op == ">=":
+        v = limit.value - slack
+        fail, part = high < v, (low < v) & (high >= v)
+    else:
+        v = limit.value + slack
+        fail, part = low > v, (high > v) & (low <= v)
+    return missing, fail & ~missing, part & ~missing
+
+
+def _family_masks(table: pd.DataFrame, screens: Screens) -> list[tuple[np.ndarray, str]]:
+    """(rejected mask, reason template) of the family and id screens."""
+    family = table["family"].to_numpy()
+    masks = []
+    if screens.families:
+        among = ", ".join(screens.families)
+        masks.append((~np.isin(family, screens.families), f"family {{family}} is not among {among}"))
+    if screens.exclude_families:
+        masks.append((np.isin(family, screens.exclude_families), "family {family} is excluded"))
+    if screens.exclude:
+        masks.append((table["id"].isin(screens.exclude).to_numpy(), "excluded by id"))
+    return masks
+
+
+def apply_screens(table: pd.DataFrame, screens: Screens) -> pd.DataFrame:
+    """A copy of ``table`` with ``status`` and ``reasons`` columns added."""
+    n = len(table)
+    rejected = np.zeros(n, dtype=bool)
+    partly = np.zeros(n, dtype=bool)
+    reasons: list[list[str]] = [[] for _ in range(n)]
+
+    def note(mask: np.ndarray, text_of) -> None:
+        for i in np.flatnonzero(mask):
+            reasons[i].append(text_of(i))
+
+    family = table["family"].to_numpy()
+    for mask, template in _family_masks(table, screens):
+        rejected |= mask
+        note(mask, lambda i, template=template: template.format(family=family[i]))
+
+    for limit in screens.limits:
+        low, high = _range_of(table, limit)
+        if limit.is_rating:
+            shown = table[limit.symbol].to_numpy()
+            show = lambda i, shown=shown: str(shown[i])  # noqa: E731
+        else:
+            unit = PROPERTIES[limit.symbol].label
+            show = lambda i, lo=low, hi=high, u=unit: f"{format_number(lo[i])}–{format_number(hi[i])} {u}"  # noqa: E731
+        missing, fail, part = _outcome(low, high, limit)
+        rejected |= fail | missing
+        partly |= part
+        note(missing, lambda i, s=limit.symbol: f"no data for {s}")
+        note(fail, lambda i, lim=limit, show=show: f"{lim.symbol} {show(i)} fails {lim.describe()}")
+        note(
+            part,
+            lambda i, lim=limit, show=show: f"only part of {lim.symbol} {show(i)} meets {lim.describe()}",
+        )
+
+    status = np.where(rejected, REJECTED, np.where(partly, PARTLY, PASSES))
+    out = table.copy()
+    out["status"] = status
+    out["reasons"] = reasons
+    return out
+
+
+def screen_mask(table: pd.DataFrame, screens: Screens) -> np.ndarray:
+    """The ``status`` column ``apply_screens`` would give, without the reasons.
+
+    A vectorised path for very large tables: the same rules, but no per-class
+    reason text, so no Python loop over classes.
+    """
+    n = len(table)
+    rejected = np.zeros(n, dtype=bool)
+    partly = np.zeros(n, dtype=bool)
+    for mask, _ in _family_masks(table, screens):
+        rejected |= mask
+    for limit in screens.limits:
+        missing, fail, part = _outcome(*_range_of(table, limit), limit)
+        rejected |= fail | missing
+        partly |= part
+    return np.where(rejected, REJECTED, np.where(partly, PARTLY, PASSES))
+
+
+def qualifying_ranges(screened: pd.DataFrame, screens: Screens) -> pd.DataFrame:
+    """A copy where each class that passes *partly* keeps only the part of its ranges that qualifies.
+
+    Ranking and sizing then use property values the screens allow (e.g. a class with
+    σ_y 140–305 MPa under a screen σ_y ≥ 300 MPa is treated as 300–305 MPa).
+    """
+    out = screened.copy()
+    partly = (out["status"] == PARTLY).to_numpy()
+    for limit in screens.limits:
+        if limit.is_rating:
+            continue
+        prop = PROPERTIES[limit.symbol]
+        low, high = out[prop.low].to_numpy(dtype=float), out[prop.high].to_numpy(dtype=float)
+        if limit.op == ">=":
+            out[prop.low] = np.where(partly & (low < limit.value) & (high >= limit.value), limit.value, low)
+        else:
+            out[prop.high] = np.where(partly & (high > limit.value) & (low <= limit.value), limit.value, high)
+    return out

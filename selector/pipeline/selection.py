@@ -1,0 +1,387 @@
+"""The pipeline: spec → screen → derive → size → rank, gathered into one Selection."""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+
+import numpy as np
+import pandas as pd
+
+from selector.errors import InputError
+from selector.inputs.properties import PROPERTIES
+from selector.inputs.spec import DIMENSION_FIELDS, QUANTITY_FIELDS, Spec
+from selector.mechanics.loadcases import load_case
+from selector.mechanics.objectives import OBJECTIVE_UNITS
+from selector.pipeline.derive import Derivation, derive_for_case
+from selector.pipeline.rank import monomial_index, rank_by_index, rank_by_value, rerank_by_index
+from selector.pipeline.screen import (
+    PARTLY,
+    REJECTED,
+    Screens,
+    apply_screens,
+    parse_screens,
+    qualifying_ranges,
+)
+from selector.pipeline.sizing import DEFAULT_DIMS, Design, missing_inputs, size_parts
+
+SYMBOL_OF_FIELD = {
+    "length": "L",
+    "force": "F",
+    "torque": "T",
+    "pressure": "p",
+    "energy": "U",
+    "width": "b",
+    "radius": "r",
+}
+FIELD_OF_SYMBOL = {v: k for k, v in SYMBOL_OF_FIELD.items()} | {
+    "delta": "max_deflection",
+    "theta": "max_twist",
+    "d": "section.d",
+    "h": "section.h",
+}
+CAUTION = (
+    "Preliminary selection only: use certified design-allowable data for the chosen grade, "
+    "appropriate safety factors, and defer to local codes and licensed engineering review."
+)
+
+
+@dataclass(frozen=True)
+class Selection:
+    """Everything one run of the pipeline found.
+
+    Attributes:
+        spec: the requirement.
+        screens: the parsed screens.
+        derivations: one per constraint, the first ranks when no loads are given.
+        table: every class with status, reasons, index columns, rank and (when sized) the part.
+        ranked_by: "index" or the objective (mass, cost, co2, volume) of the sized part.
+        has_sizes: the table holds sized parts (the spec gave loads), whatever ranks them.
+        objective_unit: unit of the objective columns when sized.
+        notes: assumptions and warnings worth showing.
+    """
+
+    spec: Spec
+    screens: Screens
+    derivations: tuple[Derivation, ...]
+    table: pd.DataFrame
+    ranked_by: str
+    objective_unit: str = ""
+    notes: tuple[str, ...] = field(default=())
+    expression: str | None = None
+    has_sizes: bool = False
+    caution: str = CAUTION
+
+    @property
+    def index_exponents(self) -> dict[str, float] | None:
+        """The ranking index as {symbol: exponent}, or None for a typed index that is no monomial."""
+        if self.expression is None:
+            return self.derivations[0].exponents
+        from selector.inputs.expressions import parse
+
+        mono = parse(self.expression).monomial()
+        return None if mono is None else mono[1]
+
+    @property
+    def index_text(self) -> str:
+        return self.expression if self.expression is not None else self.derivations[0].index_text
+
+    @property
+    def sized(self) -> bool:
+        return self.ranked_by != "index"
+
+    @property
+    def shortlist(self) -> pd.DataFrame:
+        """The ranked candidates (passes and partly), best first."""
+        return self.table[self.table["rank"].notna()].reset_index(drop=True)
+
+    @property
+    def rejected(self) -> pd.DataFrame:
+        return self.table[self.table["rank"].isna()].reset_index(drop=True)
+
+
+SECTION_FUNCTIONS = ("tie", "beam", "column", "shaft")
+"""Functions sized through a cross-section shape; the others size a wall, a plate or a volume."""
+SIZABLE_SHAPES = ("generic", "rectangle", "round", "tube", "box", "i-section", "channel", "angle", "tee")
+
+
+def _positive(value: float, where: str, text: str) -> float:
+    if not (math.isfinite(value) and value > 0):
+        raise InputError(where, f"{text!r} must be a finite value above zero", "a positive quantity")
+    return value
+
+
+def _limits(spec: Spec) -> dict[str, dict[str, float]]:
+    """Per constraint type: the allowed deflection or twist [m, rad] and the safety factor."""
+    from selector.inputs.units import magnitude_in
+
+    twist_case = spec.part.function == "shaft"
+    limits: dict[str, dict[str, float]] = {}
+    for i, c in enumerate(spec.constraint):
+        where = f"constraint[{i}]"
+        _positive(c.safety_factor, f"{where}.safety_factor", str(c.safety_factor))
+        lim = {"SF": c.safety_factor}
+        allowed = ("max_twist" if twist_case else "max_deflection") if c.type == "stiffness" else None
+        for key in ("max_deflection", "max_twist"):
+            if getattr(c, key) is not None and key != allowed:
+                raise InputError(
+                    f"{where}.{key}",
+                    f"{key} does not apply to the {c.type} constraint of a {spec.part.function}",
+                    f"{allowed} instead" if allowed else "no deflection or twist limit on this constraint",
+                )
+        if c.max_deflection is not None:
+            lim["delta"] = _positive(
+                magnitude_in(c.max_deflection, "m", f"{where}.max_deflection"),
+                f"{where}.max_deflection",
+                c.max_deflection,
+            )
+        if c.max_twist is not None:
+            lim["theta"] = _positive(
+                magnitude_in(c.max_twist, "radian", f"{where}.max_twist"), f"{where}.max_twist", c.max_twist
+            )
+        limits[c.type] = lim
+    return limits
+
+
+def _check_section(fn: str, shape: str, free: str) -> None:
+    """Refuse shape and free-variable pairs the sizing cannot honour."""
+    if fn not in SECTION_FUNCTIONS or (free == "none" and shape == "generic"):
+        return
+    if shape not in SIZABLE_SHAPES:
+        raise InputError(
+            "section.shape",
+            f"{shape!r} sections are analysed by `selector section` but not sized",
+            f"one of: {', '.join(SIZABLE_SHAPES)}",
+        )
+    if shape == "angle" and fn == "beam":
+        raise InputError(
+            "section.shape",
+            "an angle bends about inclined principal axes, so its deflection is not F·L³/(C·E·Ixx)",
+            "a section with Ixy = 0 (rectangle, round, tube, box, i-section, channel, tee)",
+        )
+    if free in ("depth", "width") and shape not in ("generic", "rectangle"):
+        raise InputError(
+            "section.free",
+            f"free = {free!r} is sized for a rectangle, not a {shape}",
+            'shape = "rectangle", or free = "scale" for other shapes',
+        )
+    if free == "wall" and shape != "tube":
+        raise InputError(
+            "section.free",
+            f"free = 'wall' is sized for a tube, not a {shape}",
+            'shape = "tube", or free = "scale" for other shapes',
+        )
+
+
+def design_of(spec: Spec, shape: str) -> Design:
+    """Loads, limits and section dimensions of a spec, in SI; refuses what cannot be sized."""
+    from selector.inputs.units import magnitude_in
+
+    values: dict[str, float] = {}
+    for name, unit in QUANTITY_FIELDS.items():
+        text = getattr(spec.part, name)
+        if text is not None:
+            where = f"part.{name}"
+            values[SYMBOL_OF_FIELD[name]] = _positive(magnitude_in(text, unit, where), where, text)
+    dims = {
+        k: _positive(magnitude_in(v, "m", f"section.{k}"), f"section.{k}", v)
+        for k, v in spec.section.dims.items()
+    }
+    limits = _limits(spec)
+    fn, free = spec.part.function, spec.section.free
+    _check_section(fn, shape, free)
+    if fn == "panel":
+        shape = "rectangle"
+        width = values.get("b", dims.get("b"))
+        dims = {"b": width} if width else {}
+        if "t" in spec.section.dims:
+            dims["h"] = magnitude_in(spec.section.t, "m", "section.t")
+    elif fn in ("cylinder", "sphere", "plate", "spring"):
+        if free == "none" and fn == "spring":
+            raise InputError(
+                "section.free",
+                "a spring is sized by its volume; 'none' has nothing to check",
+                'free = "scale"',
+            )
+        dims = {"t": dims["t"]} if "t" in dims else {}
+    elif shape == "generic" and free in ("depth", "width"):
+        shape = "rectangle"
+    if fn in SECTION_FUNCTIONS:
+        if free == "scale" and not dims:
+            dims = dict(DEFAULT_DIMS.get(shape, {}))
+        if free == "depth" and "b" not in dims and "b" in values:
+            dims["b"] = values["b"]
+    if free == "none":
+        needed = {"panel": ("b", "h"), "cylinder": ("t",), "sphere": ("t",), "plate": ("t",)}.get(fn)
+        given = set(dims)
+        if needed is None:
+            from selector.pipeline.sizing import build
+
+            if not dims:
+                raise InputError(
+                    "section.free",
+                    "'none' checks a given part, but no dimensions are given",
+                    'the section\'s dimensions, e.g. d = "40 mm" and t = "2 mm"',
+                )
+            build(shape, dims)  # raises InputError naming a missing or inconsistent dimension
+        elif not set(needed) <= given:
+            names = ", ".join("width" if n == "b" else "t" for n in needed if n not in given)
+            raise InputError(
+                "section.free",
+                f"'none' checks a given part, but {names} is not given",
+                "every dimension of the part",
+            )
+    return Design(values, limits, shape, dims, free)
+
+
+SHAPE_CONSTANT = {"k_I": "bending_stiffness", "k_Imin": "bending_stiffness", "k_Z": "bending_strength"}
+"""Shape constant → the shape-limit mode it scales with (k_I = φ_B/12, k_Z = φ_f/6; square: φ = 1)."""
+
+
+def index_with_shape(table: pd.DataFrame, derivation: Derivation) -> np.ndarray:
+    """The merit index with each family's largest practical shape factor built in.
+
+    For a light stiff beam this is (φ_max·E)^(1/2)/ρ, equal to the plain index for a solid
+    square (φ = 1); NaN where the index does not depend on a bending shape factor (ties,
+    vessels, springs, one dimension free).
+    """
+    from selector.mechanics.shape_limits import max_shape_factor
+
+    powers = derivation.objective_value.exponents
+    material = derivation.material_factor.exponents
+    scale = abs(material.get("rho", 0)) or max((abs(v) for v in material.values()), default=1)
+    used = [k for k in SHAPE_CONSTANT if powers.get(k)]
+    if not used:
+        return np.full(len(table), np.nan)
+    factor = np.ones(len(table))
+    for k in used:
+        mode = SHAPE_CONSTANT[k]
+        phi = table["family"].map(lambda f, mode=mode: max_shape_factor(f, mode)).to_numpy(dtype=float)
+        factor *= phi ** (-float(powers[k]) / float(scale))
+    return table["index"].to_numpy(dtype=float) * factor
+
+
+def expression_index(
+    table: pd.DataFrame, text: str
+) -> tuple[np.ndarray, np.ndarray, np.ndarray, tuple[str, ...]]:
+    """(low, high, typical, symbols) of a typed index expression over every class (stored units)."""
+    from selector.inputs.expressions import parse
+    from selector.pipeline.rank import property_arrays
+
+    expr = parse(text)
+    symbols = sorted(expr.symbols)
+    low_v, high_v, mid_v = property_arrays(table, symbols)
+    low, high = expr.interval(low_v, high_v)
+    n = len(table)
+    typical = np.broadcast_to(expr.evaluate(mid_v), n).astype(float)
+    return (
+        np.broadcast_to(low, n).astype(float),
+        np.broadcast_to(high, n).astype(float),
+        typical,
+        tuple(symbols),
+    )
+
+
+def select(
+    spec: Spec, materials: pd.DataFrame | None = None, conservative: bool = False, index: str | None = None
+) -> Selection:
+    """Run the whole pipeline for a spec over a materials table (the built-in one by default).
+
+    ``index`` (or the spec's ``index``) replaces the derived merit index for ranking by index.
+    """
+    if materials is None:
+        from selector.inputs.materials import load_materials
+
+        materials = load_materials(spec.materials.files, builtin=spec.materials.builtin)
+    expression = index if index is not None else spec.index
+    if not spec.constraint and expression is None:
+        raise InputError(
+            "spec: constraint", "the spec has no [[constraint]] and no index", "at least one constraint table"
+        )
+    case = load_case(spec.part.function, spec.part.support, spec.part.load)
+    free = spec.section.free
+    # With every dimension fixed the part is only checked; the index shown is the one for
+    # the first free variable the load case allows (the shape scaled at fixed proportions).
+    derive_free = free if free != "none" else case.allowed_free[0]
+    seen: set[str] = set()
+    derivations = []
+    for i, c in enumerate(spec.constraint):
+        if c.type in seen:
+            raise InputError(f"spec: constraint[{i}].type", f"{c.type!r} is given twice", "each type once")
+        seen.add(c.type)
+        derivations.append(derive_for_case(case, c.type, spec.objective.minimize, derive_free))
+    screens = parse_screens(spec.screen)
+    screened = qualifying_ranges(apply_screens(materials.reset_index(drop=True), screens), screens)
+    if expression is not None:
+        low, high, typ, needs = expression_index(screened, expression)
+        table = rank_by_index(screened, low, high, typ, conservative, needs=needs)
+        if not derivations:
+            notes = [f"ranked by the typed index {expression}"]
+            return Selection(spec, screens, (), table, "index", notes=tuple(notes), expression=expression)
+    first = derivations[0]
+    if expression is None:
+        low, high, typ = monomial_index(screened, first.exponents)
+        table = rank_by_index(screened, low, high, typ, conservative, needs=tuple(first.exponents))
+    for d in derivations[1:]:
+        _, _, extra = monomial_index(table, d.exponents)
+        table[f"index_{d.constraint}"] = extra
+    if expression is None:
+        table["index_with_shape"] = index_with_shape(table, first)
+    notes = list(case.notes)
+    if (screened["status"] == PARTLY).any():
+        notes.append("classes that pass partly are ranked on the part of their ranges that meets the screens")
+    if free == "none":
+        notes.append(
+            f"free = none: every part is checked as given; the index shown is for free = {derive_free}"
+        )
+    shape = spec.section.shape
+    if shape == "generic" and spec.section.free == "scale" and spec.part.function in SECTION_FUNCTIONS:
+        notes.append(
+            "section: a generic solid square at fixed proportions (set [section] shape to size a real one)"
+        )
+    design = design_of(spec, shape)
+    missing = missing_inputs(derivations, design)
+    if missing:
+        names = ", ".join(FIELD_OF_SYMBOL.get(s, s) for s in missing)
+        notes.append(f"ranked by merit index; to size parts the spec also needs: {names}")
+        return Selection(
+            spec, screens, tuple(derivations), table, "index", notes=tuple(notes), expression=expression
+        )
+    alive = table["status"] != REJECTED
+    sized = size_parts(table[alive], derivations, design)
+    table = pd.concat([table, sized.reindex(table.index)], axis=1)
+    table["feasible"] = table["feasible"].eq(True)
+    unsized = alive & ~table["feasible"]
+    table.loc[unsized, "status"] = REJECTED
+    table.loc[unsized, "reasons"] = pd.Series(
+        [
+            [*r, *w]
+            for r, w in zip(table.loc[unsized, "reasons"], table.loc[unsized, "size_warnings"], strict=True)
+        ],
+        index=table.index[unsized],
+        dtype=object,
+    )
+    objective = spec.objective.minimize
+    table["objective"] = table[objective].where(table["feasible"], math.inf)
+    if expression is not None:
+        notes.append(f"ranked by the typed index {expression}; the parts are sized for the spec's loads")
+        table = rerank_by_index(table, conservative)
+        ranked_by = "index"
+    else:
+        key = "objective_high" if conservative else "objective"
+        table = rank_by_value(table, key, "objective_low", "objective_high")
+        ranked_by = objective
+    return Selection(
+        spec,
+        screens,
+        tuple(derivations),
+        table,
+        ranked_by,
+        OBJECTIVE_UNITS[objective],
+        tuple(notes),
+        expression,
+        has_sizes=True,
+    )
+
+
+__all__ = ["CAUTION", "DIMENSION_FIELDS", "PROPERTIES", "Selection", "design_of", "select"]

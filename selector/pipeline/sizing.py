@@ -1,0 +1,480 @@
+"""Size every candidate class into a real part.
+
+For each class: the smallest part meeting every constraint of the spec, its
+dimensions, mass, cost, CO2, deflection and peak stress at the load, each
+constraint's utilisation and the governing constraint.
+
+The free variable is solved in closed form from the derived monomials; the
+part is then rebuilt as a real section and every utilisation evaluated from
+its exact properties. Where the monomial section model is only approximate
+(thin-wall formulas, shapes other than a rectangle with one dimension free) a
+bracketed 1-D root finder on the exact section corrects the size.
+"""
+
+from __future__ import annotations
+
+import functools
+import math
+from collections.abc import Mapping
+from dataclasses import dataclass, replace
+
+import numpy as np
+import pandas as pd
+
+from selector.errors import InputError
+from selector.inputs.properties import PROPERTIES
+from selector.mechanics import sections as sec
+from selector.mechanics.objectives import OBJECTIVE_FACTORS
+from selector.pipeline.derive import Derivation
+
+MIN_PRACTICAL_WALL = 0.5e-3
+"""Walls thinner than this [m] get a warning (common practice for formed or cast parts, no source)."""
+THIN_WALL_RATIO = 50.0
+"""d/t (or b/t) above which local buckling of a wall should be checked (common practice, no source)."""
+
+DEFAULT_DIMS: dict[str, dict[str, float]] = {
+    # Reference proportions when the spec gives none (only ratios matter when the scale is free).
+    "generic": {"b": 1.0, "h": 1.0},
+    "rectangle": {"b": 1.0, "h": 2.0},
+    "round": {"d": 1.0},
+    "tube": {"d": 1.0, "t": 0.1},
+    "box": {"b": 1.0, "h": 1.5, "t": 0.1},
+    "i-section": {"b": 0.5, "h": 1.0, "tf": 0.06, "tw": 0.04},
+    "channel": {"b": 0.4, "h": 1.0, "tf": 0.06, "tw": 0.04},
+    "angle": {"b": 1.0, "h": 1.0, "t": 0.1},
+    "tee": {"b": 1.0, "h": 1.0, "tf": 0.1, "tw": 0.08},
+}
+SHAPE_CONSTANTS = frozenset({"k_I", "k_Imin", "k_Z", "k_J", "k_Zt"})
+"""Section-model symbols with the scale free: I = k_I·A², I_min = k_Imin·A², Z = k_Z·A^1.5, ..."""
+CHECK_TOLERANCE = 1e-9
+"""Utilisation slack when checking a part whose dimensions are all fixed (free = none)."""
+SIZED_COLUMNS = (
+    "feasible",
+    "dimensions",
+    "mass",
+    "cost",
+    "co2",
+    "volume",
+    "deflection",
+    "twist",
+    "stress",
+    "utilisation",
+    "governing",
+    "size_warnings",
+)
+"""Columns ``size_parts`` adds, present even when no class is sized."""
+FREE_DIMENSION = {"depth": "h", "width": "b", "thickness": "h", "wall": "t"}
+
+
+SCALE_POWER = {"A": 2, "I": 4, "Imin": 4, "Z": 3, "J": 4, "Zt": 3}
+"""Power of the linear scale factor by which each section quantity grows."""
+
+
+def section_quantities(section: sec.Section) -> dict[str, float]:
+    """The section quantities the load cases use: A, I, Z, J, Zt [SI]."""
+    return {
+        "A": section.A,
+        "I": section.Ixx,
+        "Imin": section.I22,
+        "Z": section.Zx,
+        "J": section.J,
+        "Zt": section.Zt,
+    }
+
+
+def shape_constants(shape: str, dims: Mapping[str, float]) -> dict[str, float]:
+    """k_I = I/A², k_Z = Z/A^1.5, k_J = J/A², k_Zt = Zt/A^1.5 of a shape at these proportions."""
+    q = section_quantities(build(shape, dims))
+    a = q["A"]
+    return {
+        "k_I": q["I"] / a**2,
+        "k_Imin": q["Imin"] / a**2,
+        "k_Z": q["Z"] / a**1.5,
+        "k_J": q["J"] / a**2,
+        "k_Zt": q["Zt"] / a**1.5,
+    }
+
+
+def build(shape: str, dims: Mapping[str, float]) -> sec.Section:
+    """A real section; the generic shape is a solid square (sections are immutable, so cached)."""
+    return _build(shape, tuple(sorted(dims.items())))
+
+
+@functools.lru_cache(maxsize=1024)
+def _build(shape: str, dims: tuple[tuple[str, float], ...]) -> sec.Section:
+    return sec.build_section("rectangle" if shape == "generic" else shape, dict(dims))
+
+
+@dataclass(frozen=True)
+class Design:
+    """What the sizing needs beyond the material: loads, limits and the section (SI)."""
+
+    values: dict[str, float]  # F, L, T, p, U, b, r, d, ... and delta, theta, SF per constraint
+    limits: dict[str, dict[str, float]]  # constraint type → {delta|theta: ..., SF: ...}
+    shape: str
+    dims: dict[str, float]  # reference dimensions [m]
+    free: str
+
+
+def missing_inputs(derivations: list[Derivation], design: Design) -> list[str]:
+    """Symbols the closed-form sizes need that the spec does not give."""
+    need: set[str] = set()
+    for d in derivations:
+        need |= set(d.solution.symbols) - set(PROPERTIES) - SHAPE_CONSTANTS
+    have = set(design.values) | {k for lim in design.limits.values() for k in lim} | set(design.dims)
+    return sorted(need - have)
+
+
+def _si(table: pd.DataFrame, symbols: set[str], pick: str) -> dict[str, np.ndarray]:
+    out = {}
+    for s in symbols & set(PROPERTIES):
+        prop = PROPERTIES[s]
+        lo = table[prop.low].to_numpy(dtype=float) * prop.si_factor
+        hi = table[prop.high].to_numpy(dtype=float) * prop.si_factor
+        out[s] = {"low": lo, "high": hi, "mid": np.sqrt(lo * hi)}[pick]
+    return out
+
+
+def _inputs(d: Derivation, design: Design, constants: Mapping[str, float]) -> dict[str, float]:
+    values = dict(design.dims) | dict(design.values) | dict(constants)
+    values.update(design.limits.get(d.constraint, {}))
+    return values
+
+
+WALL_DIMENSIONS = ("t", "tf", "tw")
+"""Dimensions thickened when a section is more efficient than its family can be made."""
+CAPPED_FUNCTIONS = ("beam", "column")
+"""Functions whose sections are held to the bending shape-factor limits of Weaver & Ashby."""
+
+
+def size_parts(table: pd.DataFrame, derivations: list[Derivation], design: Design) -> pd.DataFrame:
+    """Size every row of ``table``; returns new columns (one row per class, same order).
+
+    With the scale free, a thin-walled section more efficient than a family can
+    practically be made (its shape factor above the family's limit) is sized with its
+    walls thickened to that limit for the classes of that family.
+    ``objective_low`` / ``objective_high`` bound the objective with every property at
+    its favourable / unfavourable end of the class range.
+    """
+    if design.free != "scale" or derivations[0].case.function not in CAPPED_FUNCTIONS or table.empty:
+        return _size_group(table, derivations, design)
+    parts = []
+    for family, rows in table.groupby("family", sort=False):
+        capped = capped_dims(design.shape, design.dims, str(family))
+        if capped is None:
+            parts.append(_size_group(rows, derivations, design))
+            continue
+        dims, note = capped
+        sized = _size_group(rows, derivations, replace(design, dims=dims))
+        sized["size_warnings"] = [
+            [note, *w] if isinstance(w, list) else [note] for w in sized["size_warnings"]
+        ]
+        parts.append(sized)
+    return pd.concat(parts).reindex(table.index)
+
+
+def capped_dims(shape: str, dims: Mapping[str, float], family: str) -> tuple[dict[str, float], str] | None:
+    """Proportions with the walls thickened to the family's shape-factor limits, and a note.
+
+    None when the section is already within both limits (bending stiffness and strength)
+    or has no walls to thicken.
+    """
+    from selector.mechanics.shape_limits import max_shape_factor
+
+    walls = [k for k in WALL_DIMENSIONS if k in dims]
+    if not walls:
+        return None
+    limit_e = max_shape_factor(family, "bending_stiffness")
+    limit_f = max_shape_factor(family, "bending_strength")
+
+    def thickened(w: float) -> dict[str, float]:
+        return {k: v * w if k in walls else v for k, v in dims.items()}
+
+    def within(w: float) -> bool | None:
+        try:
+            section = build(shape, thickened(w))
+        except InputError:
+            return None
+        return section.phi_bending_stiffness <= limit_e and section.phi_bending_strength <= limit_f
+
+    if within(1.0):
+        return None
+    lo, hi = 1.0, 2.0
+    while within(hi) is False:
+        lo, hi = hi, hi * 2
+    if within(hi) is None:  # walls would overlap before the limit is reached: find the thickest valid
+        valid = lo
+        for _ in range(60):
+            mid = math.sqrt(valid * hi)
+            valid, hi = (mid, hi) if within(mid) is not None else (valid, mid)
+        if not within(valid):
+            return thickened(valid), f"walls thickened as far as the shape allows for {family}"
+        hi = valid
+    for _ in range(60):
+        mid = math.sqrt(lo * hi)
+        lo, hi = (mid, hi) if not within(mid) else (lo, mid)
+    before = build(shape, dims).phi_bending_stiffness
+    after = build(shape, thickened(hi)).phi_bending_stiffness
+    note = (
+        f"walls thickened ×{hi:.2g} to the practical shape limit for {family} "
+        f"(shape factor {before:.3g} → {after:.3g})"
+    )
+    return thickened(hi), note
+
+
+def _size_group(table: pd.DataFrame, derivations: list[Derivation], design: Design) -> pd.DataFrame:
+    """Size every row of ``table`` with one design (one section at given proportions)."""
+    constants = design_constants(derivations, design)
+    symbols = set().union(*(d.objective_value.symbols | d.solution.symbols for d in derivations))
+    mid = _si(table, symbols, "mid")
+    x = _governing(
+        [
+            np.broadcast_to(d.solution.evaluate(mid | _inputs(d, design, constants)), len(table))
+            for d in derivations
+        ]
+    )
+    rows = [_one_part(table.iloc[i], x[i], derivations, design, mid, i, constants) for i in range(len(table))]
+    frame = pd.DataFrame(rows, index=table.index).reindex(columns=SIZED_COLUMNS)
+    objective = derivations[0].objective
+    fn = derivations[0].case.function
+    for column, worst in (("objective_low", False), ("objective_high", True)):
+        if design.free == "none":
+            # The part is given: only the material factor (ρ, C_m·ρ, CO2·ρ) moves the objective.
+            factor = OBJECTIVE_FACTORS[objective]
+            props = _si(table, set(factor.symbols), "high" if worst else "low")
+            frame[column] = frame["volume"].to_numpy(dtype=float) * factor.evaluate(props)
+            continue
+        ends = _governing([_objective_at_end(table, d, design, constants, worst) for d in derivations])
+        if _approximate(design, fn):
+            # Scale the closed-form ends by how far the exact part differs from the closed form.
+            closed = _governing(
+                [_objective_at_mid(d, design, constants, mid, len(table)) for d in derivations]
+            )
+            with np.errstate(divide="ignore", invalid="ignore"):
+                ends = ends * frame[objective].to_numpy(dtype=float) / closed
+        frame[column] = ends
+    return frame
+
+
+def _objective_at_mid(
+    d: Derivation, design: Design, constants: Mapping[str, float], mid: Mapping[str, np.ndarray], n: int
+) -> np.ndarray:
+    return np.broadcast_to(d.objective_value.evaluate(dict(mid) | _inputs(d, design, constants)), n)
+
+
+def _governing(values: list[np.ndarray]) -> np.ndarray:
+    """The largest requirement over the constraints, ignoring those that cannot be evaluated."""
+    with np.errstate(invalid="ignore"):
+        return np.fmax.reduce(np.vstack(values), axis=0)
+
+
+def _objective_at_end(
+    table: pd.DataFrame, d: Derivation, design: Design, constants: Mapping[str, float], worst: bool
+) -> np.ndarray:
+    """One constraint's objective with each property at its unfavourable (or favourable) end."""
+    props: dict[str, np.ndarray] = {}
+    for symbol, power in d.objective_value.powers:
+        if symbol in PROPERTIES:
+            props |= _si(table, {symbol}, "high" if (power > 0) == worst else "low")
+    return np.broadcast_to(d.objective_value.evaluate(props | _inputs(d, design, constants)), len(table))
+
+
+def _dims_for(design: Design, x: float, fn: str) -> dict[str, float]:
+    ref = dict(design.dims)
+    if design.free == "none":
+        return ref
+    if fn in ("cylinder", "sphere", "plate"):
+        return {"t": x}
+    if fn == "spring":
+        return {"V": x}
+    if design.free == "scale":
+        area = build(design.shape, ref).A
+        factor = math.sqrt(x / area)
+        return {k: v * factor for k, v in ref.items()}
+    ref[FREE_DIMENSION[design.free]] = x
+    return ref
+
+
+def _one_part(row, x, derivations, design, mid, i, constants) -> dict[str, object]:
+    fn = derivations[0].case.function
+    case = derivations[0].case
+    props = {k: v[i] for k, v in mid.items()}
+    for s in ("E", "G", "sigma_y", "sigma_c", "rho", "price", "co2"):
+        if s not in props:
+            prop = PROPERTIES[s]
+            props[s] = math.sqrt(row[prop.low] * row[prop.high]) * prop.si_factor
+    warnings: list[str] = []
+    if design.free != "none" and (not np.isfinite(x) or x <= 0):
+        return {"feasible": False, "size_warnings": ["cannot be sized (missing property data)"]}
+    dims = _dims_for(design, float(x), fn)
+    geometry = _geometry_values(design, dims, fn)
+    if geometry is None:
+        return {"feasible": False, "size_warnings": ["no valid section of this shape meets the constraints"]}
+    if design.free != "none" and _approximate(design, fn):
+        dims, geometry = _refine(design, dims, derivations, props, fn)
+        if geometry is None:
+            return {
+                "feasible": False,
+                "size_warnings": ["no valid section of this shape meets the constraints"],
+            }
+    values = dict(design.values) | geometry | props
+    util = {}
+    for d in derivations:
+        v = values | design.limits.get(d.constraint, {})
+        util[d.constraint] = float(case.utilisation[d.constraint].evaluate(v))
+    governing = max(util, key=util.get)
+    feasible = True
+    if design.free == "none" and util[governing] > 1 + CHECK_TOLERANCE:
+        feasible = False
+        warnings.append(f"the given part fails {governing} (utilisation {util[governing]:.2f})")
+    volume = float(case.volume.evaluate(values))
+    mass = volume * props["rho"]
+    responses = {
+        name: float(m.evaluate(values)) for name, m in case.responses.items() if m.symbols <= set(values)
+    }
+    warnings += _shape_warnings(design, dims, fn, str(row["family"]))
+    wall = dims.get("t") or dims.get("tw")
+    if wall is not None and wall < MIN_PRACTICAL_WALL:
+        warnings.append(f"wall {wall * 1e3:.2g} mm is thinner than a practical minimum of 0.5 mm")
+    outer = dims.get("d") or max(dims.get("b", 0.0), dims.get("h", 0.0)) or dims.get("r", 0.0) * 2
+    if wall and outer and outer / wall > THIN_WALL_RATIO:
+        warnings.append(f"slender wall (ratio {outer / wall:.0f}): check local buckling")
+    return {
+        "feasible": feasible,
+        "dimensions": dims,
+        "mass": mass,
+        "cost": mass * props["price"],
+        "co2": mass * props["co2"],
+        "volume": volume,
+        "deflection": responses.get("deflection", float("nan")),
+        "twist": responses.get("twist", float("nan")),
+        "stress": responses.get("stress", float("nan")),
+        "utilisation": util,
+        "governing": governing,
+        "size_warnings": warnings,
+    }
+
+
+def _shape_warnings(design: Design, dims: dict[str, float], fn: str, family: str) -> list[str]:
+    """Warn where the section is more efficient than the family can practically be made."""
+    if fn in ("cylinder", "sphere", "plate", "spring", "tie", "shaft") or design.shape in (
+        "generic",
+        "rectangle",
+        "round",
+    ):
+        return []
+    from selector.mechanics.shape_limits import max_shape_factor
+
+    section = build(
+        design.shape, design.dims if design.free == "scale" else dims
+    )  # φ does not change with scale
+    phi, limit = section.phi_bending_stiffness, max_shape_factor(family, "bending_stiffness")
+    if phi > limit:
+        return [f"shape factor {phi:.3g} exceeds the practical limit of about {limit:g} for {family}"]
+    return []
+
+
+def _approximate(design: Design, fn: str) -> bool:
+    """True where the closed-form size came from an approximate section model."""
+    exact = fn in ("cylinder", "sphere", "plate", "spring", "tie") or design.free == "scale"
+    return not (
+        exact or (design.free in ("depth", "width", "thickness") and design.shape in ("rectangle", "generic"))
+    )
+
+
+def _geometry_values(design: Design, dims: dict[str, float], fn: str) -> dict[str, float] | None:
+    """Section quantities and fixed geometry for evaluating the load case exactly."""
+    if fn in ("cylinder", "sphere"):
+        return {"t": dims["t"], "r": design.values["r"]}
+    if fn == "plate":
+        return {"t": dims["t"], "b": design.values["b"]}
+    if fn == "spring":
+        return {"V": dims["V"]}
+    try:
+        if design.free == "scale" and design.dims:
+            # Geometrically similar to the reference section: each quantity scales with a power of size.
+            name = next(iter(design.dims))
+            f = dims[name] / design.dims[name]
+            ref = section_quantities(build(design.shape, design.dims))
+            quantities = {k: v * f ** SCALE_POWER[k] for k, v in ref.items()}
+        else:
+            quantities = section_quantities(build(design.shape, dims))
+    except InputError:
+        return None
+    return quantities | {"b": dims.get("b", 0.0)}
+
+
+def _refine(design, dims, derivations, props, fn):
+    """Bisection (in log space) on the free dimension so the largest utilisation is 1."""
+    name = FREE_DIMENSION[design.free]
+    case = derivations[0].case
+
+    def worst(value: float) -> float:
+        trial = dict(dims)
+        trial[name] = value
+        geo = _geometry_values(design, trial, fn)
+        if geo is None:
+            return math.inf
+        vals = dict(design.values) | geo | props
+        return max(
+            float(case.utilisation[d.constraint].evaluate(vals | design.limits.get(d.constraint, {})))
+            for d in derivations
+        )
+
+    lo, hi = dims[name] * 1e-3, dims[name] * 1e3
+    if worst(hi) > 1 and not math.isfinite(worst(hi)):
+        # Shrink the upper bracket to the largest valid dimension.
+        while hi > lo and not math.isfinite(worst(hi)):
+            hi /= 1.05
+    if worst(hi) > 1:
+        return dims, None
+    for _ in range(80):
+        m = math.sqrt(lo * hi)
+        lo, hi = (m, hi) if worst(m) > 1 else (lo, m)
+    out = dict(dims)
+    out[name] = hi
+    return out, _geometry_values(design, out, fn)
+
+
+def design_constants(derivations: list[Derivation], design: Design) -> dict[str, float]:
+    """Shape constants k_I, k_Z, k_J, k_Zt when the scale is free (none otherwise), as in ``size_parts``."""
+    uses_section = derivations[0].case.function not in ("spring", "cylinder", "sphere", "plate")
+    if uses_section and SHAPE_CONSTANTS & set().union(*(d.solution.symbols for d in derivations)):
+        return shape_constants(design.shape, dict(design.dims))
+    return {}
+
+
+def objective_samples(
+    derivations: list[Derivation], design: Design, properties: Mapping[str, np.ndarray]
+) -> np.ndarray:
+    """The closed-form objective of the governing constraint for sampled properties.
+
+    Each derivation's ``objective_value`` monomial (mass [kg], cost [USD], CO2
+    [kg CO2e] or volume [m³] of the part that just meets that constraint) is
+    evaluated with the spec's loads, limits and section; the largest value over
+    the constraints is the one that governs.
+
+    Args:
+        derivations: one per constraint of the spec.
+        design: loads, limits and section in SI (from ``selection.design_of``).
+        properties: property symbol → values in SI units; arrays of any one
+            broadcastable shape (e.g. draws × classes).
+
+    Returns:
+        The governing objective, broadcast to the shape of the property arrays.
+    """
+    if not derivations:
+        raise ValueError("objective_samples needs at least one derivation")
+    if design.free == "none":
+        # A given part: its volume is fixed and only the material factor moves the objective.
+        case = derivations[0].case
+        geometry = _geometry_values(design, dict(design.dims), case.function) or {}
+        volume = float(case.volume.evaluate(dict(design.values) | geometry))
+        return np.asarray(volume * OBJECTIVE_FACTORS[derivations[0].objective].evaluate(dict(properties)))
+    constants = design_constants(derivations, design)
+    result: np.ndarray | None = None
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        for d in derivations:
+            value = np.asarray(d.objective_value.evaluate(dict(properties) | _inputs(d, design, constants)))
+            result = value if result is None else np.fmax(result, value)
+    return np.asarray(result)

@@ -1,0 +1,227 @@
+"""The explorer end to end: a real server on 127.0.0.1 and headless Chromium driving the page.
+
+Expected answers come from the library called directly (``select``, ``chart_for_selection``,
+``class_frame``), so these tests check that the page shows what the pipeline computes.
+Plotly sends arrays base64-encoded, so drawn elements are counted in the DOM.
+"""
+
+from __future__ import annotations
+
+import threading
+import time
+import urllib.request
+from collections.abc import Iterator
+from typing import Any
+from urllib.parse import urlsplit
+
+import numpy as np
+import pandas as pd
+import pytest
+
+from selector.outputs.explore.app import bind, initial_controls, load_start, make_app, spec_data
+from tests.browser import chromium, chromium_page, need_browser
+
+pytestmark = pytest.mark.browser
+
+WAIT_MS = 20_000
+"""Longest wait for the page to answer a change (a bound, not a pause)."""
+POLL_S = 0.05
+
+
+def _wait_until_up(url: str, limit_s: float = 20.0) -> None:
+    """Poll the server (127.0.0.1 only) until it answers, for at most ``limit_s`` seconds."""
+    assert urlsplit(url).hostname == "127.0.0.1"
+    deadline = time.monotonic() + limit_s
+    last: Exception | None = None
+    while time.monotonic() < deadline:
+        try:
+            with urllib.request.urlopen(url, timeout=2) as reply:
+                if reply.status == 200:
+                    return
+        except OSError as exc:
+            last = exc
+        time.sleep(POLL_S)
+    raise AssertionError(f"the explorer did not answer at {url} within {limit_s} s: {last}")
+
+
+@pytest.fixture(scope="module")
+def server() -> Iterator[str]:
+    need_browser()
+    app = make_app()
+    srv = bind(app, 0)
+    thread = threading.Thread(target=srv.serve_forever, daemon=True)
+    thread.start()
+    url = f"http://127.0.0.1:{srv.port}/"
+    try:
+        _wait_until_up(url)
+        yield url
+    finally:
+        srv.shutdown()
+        srv.server_close()
+        thread.join(timeout=10)
+
+
+@pytest.fixture(scope="module")
+def browser(server: str) -> Iterator[Any]:
+    with chromium() as b:
+        yield b
+
+
+@pytest.fixture(scope="module")
+def loaded(browser: Any, server: str) -> Iterator[Any]:
+    """One page for the module (loading plotly.js is the slow part); each test undoes its changes.
+
+    Requests to the server go through; all others are logged and refused.
+    """
+    with chromium_page(browser, width=1440, height=1000) as log:
+        pg = log.page
+
+        def loopback(route: Any) -> None:
+            if urlsplit(route.request.url).hostname == "127.0.0.1":
+                route.continue_()
+            else:
+                route.fallback()  # the handler of tests/browser.py logs and aborts it
+
+        pg.route("**/*", loopback)
+        pg.set_default_timeout(WAIT_MS)
+        pg.goto(server)
+        pg.wait_for_selector("#shortlist-table tbody tr")
+        pg.wait_for_selector("#chart .scatterlayer path.point")
+        yield log
+
+
+@pytest.fixture
+def page(loaded: Any) -> Iterator[Any]:
+    yield loaded.page
+    assert loaded.page_errors == []
+    assert loaded.console_errors == []
+    assert loaded.outside_requests == []
+    assert loaded.dialogs == []
+
+
+def _library(**screen: str):
+    """The Selection for the example with some screens changed, straight from the library."""
+    from selector.inputs.spec import spec_from_dict
+    from selector.pipeline.selection import select
+
+    start = load_start()
+    data = spec_data(start, initial_controls(start))
+    data["screen"].update(screen)
+    return select(spec_from_dict(data), start.table)
+
+
+def _type(page: Any, selector: str, text: str) -> None:
+    box = page.locator(selector)
+    box.fill(text)
+    box.press("Enter")
+
+
+def test_changing_a_screen_changes_the_shortlist(page):
+    from playwright.sync_api import expect
+
+    rows = page.locator("#shortlist-table tbody tr")
+    before, after = _library(), _library(T_max=">= 200 degC")
+    assert len(after.shortlist) < len(before.shortlist)  # the woods are rated below 200 °C
+    expect(rows).to_have_count(len(before.shortlist))
+    _type(page, "#screen-T_max", "200 degC")
+    expect(rows).to_have_count(len(after.shortlist))
+    shown = [rows.nth(i).get_attribute("data-id") for i in range(rows.count())]
+    assert shown == list(after.shortlist["id"])
+    _type(page, "#screen-T_max", "60 degC")
+    expect(rows).to_have_count(len(before.shortlist))
+
+
+def test_swapping_an_axis_redraws_the_chart(page):
+    from playwright.sync_api import expect
+
+    from selector.outputs.charts import chart_for_selection
+
+    lib = chart_for_selection(_library(), "rho", "sigma_y", top=5)
+    _type(page, "#y-axis", "sigma_y")
+    expect(page.locator("#chart .ytitle")).to_contain_text("Yield strength")
+    expect(page.locator("#chart .scatterlayer .trace")).to_have_count(len(lib.data))
+    points = sum(len(t.x) for t in lib.data if t.mode == "markers")
+    expect(page.locator("#chart .scatterlayer path.point")).to_have_count(points)
+    # E^1/2/rho does not reduce to rho and sigma_y: the index lines are gone.
+    assert not any((t.meta or {}).get("role") == "index-line" for t in lib.data)
+    _type(page, "#y-axis", "")
+    expect(page.locator("#chart .ytitle")).to_contain_text("Young")
+
+
+def test_a_bad_expression_shows_a_message_and_the_page_keeps_working(page):
+    from playwright.sync_api import expect
+
+    message = page.locator("#msg-x")
+    _type(page, "#x-axis", "rho^^2")
+    expect(message).to_be_visible()
+    expect(message).to_contain_text("column 5")
+    _type(page, "#x-axis", "price*rho")
+    expect(message).to_be_empty()
+    expect(page.locator("#chart .xtitle")).to_contain_text("kg/m³")
+    expect(page.locator("#chart .xtitle")).to_contain_text("USD/kg")
+    _type(page, "#x-axis", "")
+    expect(page.locator("#chart .xtitle")).not_to_contain_text("USD/kg")
+
+
+def _loneliest(table: pd.DataFrame) -> str:
+    """The class whose marker on the density–modulus chart is farthest from every other one."""
+    x = np.log10(np.sqrt(table["rho_low"] * table["rho_high"]).to_numpy(dtype=float))
+    y = np.log10(np.sqrt(table["E_low"] * table["E_high"]).to_numpy(dtype=float))
+    gap = np.hypot(x[:, None] - x[None, :], y[:, None] - y[None, :])
+    np.fill_diagonal(gap, np.inf)
+    return str(table["id"].iat[int(np.argmax(gap.min(axis=1)))])
+
+
+def test_clicking_a_class_shows_its_data(page):
+    from playwright.sync_api import expect
+
+    from selector.inputs.units import format_number
+    from selector.outputs.charts import chart_for_selection
+    from selector.outputs.tables import class_frame
+
+    selection = _library()
+    picked = _loneliest(selection.table)
+    box = page.evaluate(
+        """(id) => {
+          for (const g of document.querySelectorAll('#chart .scatterlayer .trace')) {
+            const trace = g.__data__ && g.__data__[0] && g.__data__[0].trace;
+            const ids = trace && trace.customdata ? Array.from(trace.customdata) : [];
+            if (!ids.includes(id)) continue;
+            const r = g.querySelectorAll('path.point')[ids.indexOf(id)].getBoundingClientRect();
+            return {x: r.x + r.width / 2, y: r.y + r.height / 2};
+          }
+          return null;
+        }""",
+        picked,
+    )
+    assert box is not None, f"no marker for {picked}"
+    page.mouse.move(box["x"], box["y"])
+    page.mouse.click(box["x"], box["y"])
+    mine = selection.table[selection.table["id"] == picked].iloc[0]
+    expect(page.locator("#class-name")).to_have_text(str(mine["name"]))
+    data = class_frame(selection.table, picked)
+    rho = data[data["property"].str.startswith("rho")].iloc[0]
+    expect(page.locator("#class-table")).to_contain_text(
+        f"{format_number(rho['low'])} – {format_number(rho['high'])}"
+    )
+    expect(page.locator("#class-status")).to_contain_text(str(mine["status"]))
+    expect(page.locator("#class-sources li").first).to_be_visible()
+    # The index line now passes through the clicked class, as the library draws it.
+    expect(page.locator("#line-mode input[value=class]")).to_be_checked()
+    lib = chart_for_selection(selection, "rho", "E", through=picked)
+    label = next(a.text for a in lib.layout.annotations if a.text and "through" in a.text)
+    expect(page.locator("#chart .annotation")).to_contain_text([label.split(", ", 1)[1]])
+
+
+def test_the_shortlist_downloads_as_csv(page):
+    from selector.outputs.tables import render_selection
+
+    with page.expect_download() as info:
+        page.click("#get-csv")
+    path = info.value.path()
+    got = pd.read_csv(path)
+    selection = _library()
+    assert list(got["id"]) == list(selection.shortlist["id"])
+    assert "mass [kg]" in got.columns
+    with open(path, encoding="utf-8") as handle:
+        assert handle.read().rstrip("\n") == render_selection(selection, "csv", "si")
