@@ -23,21 +23,16 @@ from dash.development.base_component import Component
 
 from selector.errors import InputError
 from selector.inputs.spec import DEMO_SPEC, EXAMPLES
-from selector.outputs.explore import app as explore
-from selector.outputs.explore.app import (
+from selector.outputs.explore import server as explore
+from selector.outputs.explore.callbacks import download, pick_class, refresh, sync_screen
+from selector.outputs.explore.server import bind, make_app, serve
+from selector.outputs.explore.state import (
     MESSAGE_KEYS,
     SCREEN_ROWS,
     Controls,
-    bind,
-    download,
     initial_controls,
     load_start,
-    make_app,
-    pick_class,
-    refresh,
-    serve,
     spec_data,
-    sync_screen,
 )
 
 SPEC = EXAMPLES / DEMO_SPEC

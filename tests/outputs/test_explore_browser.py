@@ -18,7 +18,8 @@ import numpy as np
 import pandas as pd
 import pytest
 
-from selector.outputs.explore.app import bind, initial_controls, load_start, make_app, spec_data
+from selector.outputs.explore.server import bind, make_app
+from selector.outputs.explore.state import initial_controls, load_start, spec_data
 from tests.browser import chromium, chromium_page, need_browser
 
 pytestmark = pytest.mark.browser

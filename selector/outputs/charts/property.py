@@ -1,0 +1,252 @@
+"""The property chart of two properties or index expressions, and the chart of a Selection."""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Mapping, Sequence
+from typing import Any
+
+import numpy as np
+import pandas as pd
+import plotly.graph_objects as go
+
+from selector.errors import InputError, SelectorError
+from selector.inputs.expressions import parse
+from selector.inputs.properties import PROPERTIES
+from selector.inputs.units import format_number
+from selector.outputs.charts.axes import (
+    _axis_layout,
+    _AxisLook,
+    _base_layout,
+    _check_units,
+    _extent,
+    axis_spec,
+    axis_values,
+)
+from selector.outputs.charts.classes import _Classes, _draw_classes, _gather
+from selector.outputs.charts.guides import (
+    IndexLine,
+    _bounds,
+    _draw_index_lines,
+    _draw_pass_region,
+    _limits_of,
+    index_line,
+)
+from selector.outputs.charts.labels import _label_shortlist, _note_skipped
+from selector.outputs.charts.markup import _esc
+from selector.pipeline.screen import REJECTED, Limit, Screens, apply_screens
+from selector.suggest import did_you_mean
+
+
+def property_chart(
+    table: pd.DataFrame,
+    x: str,
+    y: str,
+    *,
+    units: str = "si",
+    index: Any = None,
+    through: str | None = None,
+    at: float | None = None,
+    screens: Screens | Sequence[Limit] | None = None,
+    highlight: Sequence[str] | None = None,
+    title: str | None = None,
+    steps: int = 3,
+    factor: float = 10.0,
+) -> go.Figure:
+    """A chart of two properties or index expressions, one box per class.
+
+    Args:
+        table: materials table (``load_materials()``) or a Selection's table; ``status``,
+            ``reasons`` and ``rank`` columns are used when present.
+        x, y: property symbols or expressions, e.g. ``"rho"``, ``"E"``, ``"price*rho"``.
+        units: ``"si"`` (stored engineering units) or ``"us"``.
+        index: merit index for index lines: text (``"E^0.5/rho"``), ``{symbol: exponent}``
+            or a Derivation. It must reduce to the two plotted quantities.
+        through: id of the class the main index line passes through (at its marker).
+        at: index value of the main line instead, in the chart's display units. With neither,
+            the line passes through the first highlighted class, else the median class.
+        screens: limits to draw as the pass region (and to screen with when ``table`` has no
+            ``status`` column).
+        highlight: ids of the shortlist, best first; they are ringed and named.
+        title: chart title (escaped).
+        steps, factor: parallel index lines at value × factor^k for k = −steps … steps.
+
+    Raises:
+        InputError: unknown axis, unit system, class id or an index that cannot be drawn.
+        ExpressionError: an axis or index expression that cannot be parsed.
+    """
+    units = _check_units(units)
+    xa, ya = axis_spec(x, units, "x axis"), axis_spec(y, units, "y axis")
+    limits = _limits_of(screens)
+    if limits and "status" not in table.columns:
+        table = apply_screens(table.reset_index(drop=True), Screens(limits=limits))
+    if (through is not None or at is not None) and index is None:
+        raise InputError(
+            "index line", "through= or at= was given without an index", "an index such as E^0.5/rho"
+        )
+    if through is not None and at is not None:
+        raise InputError("index line", f"both through={through!r} and at={at!r} were given", "one of the two")
+    line = index_line(index, xa, ya) if index is not None else None
+    xv, yv = axis_values(table, xa), axis_values(table, ya)
+    classes, skipped = _gather(table, xv, yv, xa.log, ya.log, (xa.label, xa.unit), (ya.label, ya.unit))
+    if not classes.ids:
+        raise InputError(
+            "chart",
+            f"no class has data for both {x} and {y}",
+            "a table with values for the plotted properties",
+        )
+    xb_low, xb_high, _ = _bounds(xa, limits)
+    yb_low, yb_high, _ = _bounds(ya, limits)
+    x_marks = [float(v) for v in (xb_low, xb_high) if v is not None]
+    y_marks = [float(v) for v in (yb_low, yb_high) if v is not None]
+    x_extent = _extent([classes.x_low, *x_marks], [classes.x_high, *x_marks], xa.log)
+    y_extent = _extent([classes.y_low, *y_marks], [classes.y_high, *y_marks], ya.log)
+    box = (*x_extent, *y_extent)
+
+    fig = go.Figure()
+    if any(v is not None for v in (xb_low, xb_high, yb_low, yb_high)):
+        _draw_pass_region(fig, xa, ya, (xb_low, xb_high), (yb_low, yb_high), box)
+    subtitle = []
+    if line is not None:
+        value, through_name = _index_value(line, classes, through, at, highlight)
+        _draw_index_lines(fig, line, value, through_name, box, steps, factor)
+        unit = f" (in {line.unit})" if line.unit else ""
+        subtitle.append(
+            f"index {line.label}{unit}: lines of slope {format_number(line.slope)}, "
+            f"×/÷ {format_number(factor)} apart; higher on the shaded side"
+        )
+    _draw_classes(fig, classes)
+    labelled = _label_shortlist(fig, classes, highlight or (), xa.log, ya.log, box)
+    n_rejected = sum(s == REJECTED for s in classes.status)
+    subtitle.append(
+        f"{len(classes.ids)} classes drawn" + (f", {n_rejected} rejected (grey)" if n_rejected else "")
+    )
+    if labelled:
+        subtitle.append(f"top {len(labelled)} of the shortlist named")
+    _note_skipped(fig, skipped, f"no data for {x} or {y}, or not positive on a log axis")
+    default_title = (
+        f"{_esc(PROPERTIES[y].name.capitalize()) if ya.is_property else ya.label} against "
+        f"{_esc(PROPERTIES[x].name) if xa.is_property else xa.label}"
+    )
+    _base_layout(
+        fig,
+        _esc(title) if title else default_title,
+        " · ".join(subtitle),
+        _axis_layout(_AxisLook(xa.title, xa.log), x_extent),
+        _axis_layout(_AxisLook(ya.title, ya.log), y_extent),
+    )
+    fig.update_layout(
+        meta={
+            "chart": "property",
+            "x": _esc(x),
+            "y": _esc(y),
+            "units": units,
+            "drawn": len(classes.ids),
+            "skipped": [_esc(s) for s in skipped],
+        }
+    )
+    return fig
+
+
+def _index_value(
+    line: IndexLine, classes: _Classes, through: str | None, at: float | None, highlight: Sequence[str] | None
+) -> tuple[float, str | None]:
+    """The main line's index value and the name of the class it passes through (if any)."""
+    if at is not None:
+        if isinstance(at, bool) or not isinstance(at, int | float) or not math.isfinite(at):
+            raise InputError("index line: at", f"{at!r} is not a number", "a positive index value")
+        return float(at), None
+    where = {cid: i for i, cid in enumerate(classes.ids)}
+    target = through if through is not None else next((h for h in (highlight or ()) if h in where), None)
+    if target is None:
+        values = line.value(classes.x_mid, classes.y_mid)
+        i = int(np.argsort(values)[len(values) // 2])
+        return float(values[i]), classes.names[i]
+    if target not in where:
+        raise InputError(
+            "index line: through",
+            f"no drawn class with id {target!r}",
+            did_you_mean(target, where, fallback="the id of a class drawn on the chart"),
+        )
+    i = where[target]
+    return float(line.value(classes.x_mid[i], classes.y_mid[i])), classes.names[i]
+
+
+def default_axes(exponents: Mapping[str, float]) -> tuple[str, str]:
+    """Axes that show an index as straight lines: (x, y) = (what is divided by, what is multiplied).
+
+    ``{E: 0.5, rho: -1}`` gives ("rho", "E"); ``{E: 1/3, price: -1, rho: -1}`` gives
+    ("price*rho", "E"). An index of one sign only is plotted against density.
+    """
+    pos = {s: p for s, p in exponents.items() if p > 0}
+    neg = {s: -p for s, p in exponents.items() if p < 0}
+
+    def product(part: Mapping[str, float]) -> str:
+        base = min(part.values())
+        return "*".join(
+            s if math.isclose(p / base, 1) else f"{s}^{format_number(p / base, 6)}" for s, p in part.items()
+        )
+
+    if pos and neg:
+        return product(neg), product(pos)
+    only = pos or neg
+    if not only:
+        raise InputError("index", "the index has no properties", "an index such as E^0.5/rho")
+    y = product(only)
+    if y == "rho":
+        return "price", "rho"
+    return "rho", y
+
+
+def chart_for_selection(
+    selection: Any,
+    x: str | None = None,
+    y: str | None = None,
+    units: str | None = None,
+    *,
+    index: Any = None,
+    through: str | None = None,
+    at: float | None = None,
+    top: int = 5,
+    title: str | None = None,
+) -> go.Figure:
+    """The property chart of a Selection: its screens, its shortlist and its merit index.
+
+    Default axes are those of the ranking index (``rho`` and ``E`` for E^1/2/ρ; ``rho`` and
+    ``E`` when the index is a typed expression that is no monomial). The index line is the
+    ranking index (derived, or typed in the spec) unless ``index`` is given, and passes
+    through the best-ranked class unless ``through`` or ``at`` is given; it is left out when
+    the ranking index does not reduce to axes chosen here. The top ``top`` classes of the
+    shortlist are named.
+    """
+    typed = getattr(selection, "expression", None)
+    derivations = tuple(getattr(selection, "derivations", ()))
+    exponents = parse(typed).monomial() if typed else None
+    ranking: Any = typed if exponents is not None else (derivations[0] if derivations and not typed else None)
+    if x is None or y is None:
+        powers = exponents[1] if exponents is not None else (derivations[0].exponents if ranking else None)
+        dx, dy = default_axes(powers) if powers else ("rho", "E")
+        x, y = x or dx, y or dy
+    units = units or getattr(selection.spec, "units", "si") or "si"
+    shortlist = selection.shortlist
+    highlight = [str(v) for v in shortlist["id"].head(max(top, 0))] if "id" in shortlist.columns else []
+    chosen = index if index is not None else ranking
+    xa, ya = axis_spec(x, units, "x axis"), axis_spec(y, units, "y axis")
+    if chosen is not None and index is None and through is None and at is None:
+        try:
+            index_line(chosen, xa, ya)
+        except SelectorError:
+            chosen = None  # the ranking index does not fit the axes chosen: no index line
+    spec_title = getattr(selection.spec, "title", None)
+    return property_chart(
+        selection.table,
+        x,
+        y,
+        units=units,
+        index=chosen,
+        through=through,
+        at=at,
+        screens=selection.screens,
+        highlight=highlight,
+        title=title or spec_title,
+    )
