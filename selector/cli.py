@@ -361,9 +361,17 @@ def main() -> None:
 
     try:
         cli.main(standalone_mode=False)
+        sys.stdout.flush()
     except SelectorError as exc:
         click.echo(f"error: {exc}", err=True)
         sys.exit(exc.exit_code)
+    except OSError as exc:  # stdout full or closed: say so once, and keep Python's exit flush quiet
+        from selector.outputs.files import silence_stdout
+
+        silence_stdout()
+        where = exc.filename or "stdout"
+        click.echo(f"error: {where}: cannot be written ({exc.strerror}); free some space or write elsewhere", err=True)
+        sys.exit(2)
     except click.exceptions.Abort:
         click.echo("aborted", err=True)
         sys.exit(1)

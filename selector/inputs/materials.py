@@ -38,6 +38,7 @@ import pandas as pd
 import materials_db
 from selector.errors import DataFileError, InputError, Problem, UnitError
 from selector.inputs import units
+from selector.inputs.limits import check_toml_text, finite_float, shown
 from selector.inputs.properties import (
     FAMILIES,
     NOT_APPLICABLE,
@@ -795,6 +796,10 @@ def _read_toml(path: Path, label: str) -> tuple[pd.DataFrame, list[Problem]]:
     if problems:
         return pd.DataFrame(), problems
     try:
+        check_toml_text(text, label)
+    except InputError as exc:
+        return pd.DataFrame(), [exc.problem]
+    try:
         doc = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
         return pd.DataFrame(), [
@@ -906,22 +911,25 @@ def _toml_quantity(value: Any, prop: Property, where: str) -> tuple[float, Probl
             )
         return np.nan, None
     if isinstance(value, bool) or not isinstance(value, str | int | float):
-        return np.nan, Problem(where, f"{value!r} is not a quantity", example)
+        return np.nan, Problem(where, f"{shown(value)} is not a quantity", example)
     if optional and (not isinstance(value, str) or _NUMBER.fullmatch(value.strip())):
-        return float(value), None
+        number = finite_float(value)
+        if number is None:
+            return np.nan, Problem(where, f"{shown(value)} is not a finite number", example)
+        return number, None
     if not isinstance(value, str):
-        return np.nan, Problem(where, f"{value!r} has no unit", example)
+        return np.nan, Problem(where, f"{shown(value)} has no unit", example)
     with np.errstate(all="ignore"):
         try:
             units.quantity(value, where)
         except UnitError as exc:
             return np.nan, Problem(where, exc.what, example)
         except Exception:  # pint's parser lets some syntax errors escape as other types; all mean unreadable
-            return np.nan, Problem(where, f"cannot read {value!r}", example)
+            return np.nan, Problem(where, f"cannot read {shown(value)}", example)
         try:
             return units.magnitude_in(value, prop.stored, where), None
         except UnitError:
-            return np.nan, Problem(where, f"the unit of {value!r} does not measure {prop.name}", example)
+            return np.nan, Problem(where, f"the unit of {shown(value)} does not measure {prop.name}", example)
 
 
 def _suggest_field(key: str) -> str:

@@ -13,6 +13,7 @@ from typing import Annotated, Any
 from pydantic import AfterValidator, BaseModel, ConfigDict, Field, ValidationError, field_validator
 
 from selector.errors import InputError
+from selector.inputs.limits import check_range, check_toml_text
 from selector.inputs.properties import FAMILIES, PROPERTIES, RATINGS
 from selector.mechanics.loadcases import CONSTRAINTS, FREE_VARIABLES, FUNCTIONS
 from selector.mechanics.objectives import OBJECTIVES
@@ -204,6 +205,7 @@ def load_spec(path: str | Path) -> Spec:
         raise InputError(
             str(file), f"cannot be read ({exc.__class__.__name__})", "a UTF-8 TOML file"
         ) from None
+    check_toml_text(text, str(file))
     try:
         data = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
@@ -224,5 +226,6 @@ def parse_dimension_args(shape: str, args: tuple[str, ...] | list[str]) -> dict[
         unit = "Pa" if name.startswith("E_") else "m"
         if name in dims:
             raise InputError(f"section {shape}: {name}", f"{name} is given twice", "each dimension once")
-        dims[name] = magnitude_in(text.strip(), unit, f"section {shape}: {name}")
+        where = f"section {shape}: {name}"
+        dims[name] = check_range(magnitude_in(text.strip(), unit, where), unit, where, text.strip())
     return dims

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import os
+import sys
 import tempfile
 from collections.abc import Sequence
 from pathlib import Path
@@ -59,3 +60,13 @@ def ensure_folder(path: str | Path) -> Path:
     if target.is_dir():
         raise OutputError(str(path), "is a folder; give a file name")
     return target
+
+
+def silence_stdout() -> None:
+    """Point stdout at the null device, so a stdout that failed once is not flushed again at exit."""
+    try:
+        null = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(null, sys.stdout.fileno())
+        os.close(null)
+    except (OSError, ValueError, AttributeError):  # no real file behind stdout (e.g. under a test runner)
+        pass

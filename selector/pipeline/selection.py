@@ -9,6 +9,7 @@ import numpy as np
 import pandas as pd
 
 from selector.errors import InputError
+from selector.inputs.limits import check_range, check_safety_factor
 from selector.inputs.properties import PROPERTIES
 from selector.inputs.spec import DIMENSION_FIELDS, QUANTITY_FIELDS, Spec
 from selector.mechanics.loadcases import load_case
@@ -105,12 +106,6 @@ SECTION_FUNCTIONS = ("tie", "beam", "column", "shaft")
 SIZABLE_SHAPES = ("generic", "rectangle", "round", "tube", "box", "i-section", "channel", "angle", "tee")
 
 
-def _positive(value: float, where: str, text: str) -> float:
-    if not (math.isfinite(value) and value > 0):
-        raise InputError(where, f"{text!r} must be a finite value above zero", "a positive quantity")
-    return value
-
-
 def _limits(spec: Spec) -> dict[str, dict[str, float]]:
     """Per constraint type: the allowed deflection or twist [m, rad] and the safety factor."""
     from selector.inputs.units import magnitude_in
@@ -119,7 +114,7 @@ def _limits(spec: Spec) -> dict[str, dict[str, float]]:
     limits: dict[str, dict[str, float]] = {}
     for i, c in enumerate(spec.constraint):
         where = f"constraint[{i}]"
-        _positive(c.safety_factor, f"{where}.safety_factor", str(c.safety_factor))
+        check_safety_factor(c.safety_factor, f"{where}.safety_factor")
         lim = {"SF": c.safety_factor}
         allowed = ("max_twist" if twist_case else "max_deflection") if c.type == "stiffness" else None
         for key in ("max_deflection", "max_twist"):
@@ -130,14 +125,18 @@ def _limits(spec: Spec) -> dict[str, dict[str, float]]:
                     f"{allowed} instead" if allowed else "no deflection or twist limit on this constraint",
                 )
         if c.max_deflection is not None:
-            lim["delta"] = _positive(
+            lim["delta"] = check_range(
                 magnitude_in(c.max_deflection, "m", f"{where}.max_deflection"),
+                "m",
                 f"{where}.max_deflection",
                 c.max_deflection,
             )
         if c.max_twist is not None:
-            lim["theta"] = _positive(
-                magnitude_in(c.max_twist, "radian", f"{where}.max_twist"), f"{where}.max_twist", c.max_twist
+            lim["theta"] = check_range(
+                magnitude_in(c.max_twist, "radian", f"{where}.max_twist"),
+                "radian",
+                f"{where}.max_twist",
+                c.max_twist,
             )
         limits[c.type] = lim
     return limits
@@ -182,9 +181,9 @@ def design_of(spec: Spec, shape: str) -> Design:
         text = getattr(spec.part, name)
         if text is not None:
             where = f"part.{name}"
-            values[SYMBOL_OF_FIELD[name]] = _positive(magnitude_in(text, unit, where), where, text)
+            values[SYMBOL_OF_FIELD[name]] = check_range(magnitude_in(text, unit, where), unit, where, text)
     dims = {
-        k: _positive(magnitude_in(v, "m", f"section.{k}"), f"section.{k}", v)
+        k: check_range(magnitude_in(v, "m", f"section.{k}"), "m", f"section.{k}", v)
         for k, v in spec.section.dims.items()
     }
     limits = _limits(spec)
@@ -341,6 +340,12 @@ def select(
         )
     design = design_of(spec, shape)
     missing = missing_inputs(derivations, design)
+    if not missing and "L" in case.volume.symbols and "L" not in design.values:
+        raise InputError(
+            "part.length",
+            f"a {spec.part.function} is sized from its loads, but its length is not given",
+            'the length of the part, e.g. length = "1.2 m"',
+        )
     if missing:
         names = ", ".join(FIELD_OF_SYMBOL.get(s, s) for s in missing)
         notes.append(f"ranked by merit index; to size parts the spec also needs: {names}")
