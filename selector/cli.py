@@ -370,7 +370,10 @@ def main() -> None:
 
         silence_stdout()
         where = exc.filename or "stdout"
-        click.echo(f"error: {where}: cannot be written ({exc.strerror}); free some space or write elsewhere", err=True)
+        click.echo(
+            f"error: {where}: cannot be written ({exc.strerror}); free some space or write elsewhere",
+            err=True,
+        )
         sys.exit(2)
     except click.exceptions.Abort:
         click.echo("aborted", err=True)

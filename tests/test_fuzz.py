@@ -97,7 +97,9 @@ odd_text = st.text(alphabet=st.characters(blacklist_categories=("Cs",)), max_siz
 leaves = st.one_of(numbers, st.booleans(), quantity_text, odd_text)
 values = st.recursive(
     leaves,
-    lambda inner: st.one_of(st.lists(inner, max_size=3), st.dictionaries(st.text(max_size=5), inner, max_size=3)),
+    lambda inner: st.one_of(
+        st.lists(inner, max_size=3), st.dictionaries(st.text(max_size=5), inner, max_size=3)
+    ),
     max_leaves=6,
 )
 deep = st.integers(min_value=10, max_value=3000).map(lambda n: "[" * n + "1" + "]" * n)
@@ -279,7 +281,7 @@ def test_huge_integer_in_materials_toml_is_one_short_problem(tmp_path) -> None:
     from selector.inputs.materials import check_materials_file
 
     path = tmp_path / "big.toml"
-    path.write_text(VALID_TOML.replace('nu = 0.29', "nu = " + "9" * 400), encoding="utf-8")
+    path.write_text(VALID_TOML.replace("nu = 0.29", "nu = " + "9" * 400), encoding="utf-8")
     assert "nu = " + "9" * 400 in path.read_text(encoding="utf-8")
     problems = check_materials_file(path)
     assert len(problems) == 1

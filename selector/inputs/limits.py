@@ -51,9 +51,7 @@ def check_toml_text(text: str, where: str) -> None:
     """Refuse a TOML text too large or too deeply nested to read safely, before parsing it."""
     size = len(text.encode("utf-8", errors="replace"))
     if size > MAX_TOML_BYTES:
-        raise InputError(
-            where, f"is {size:,} bytes long", f"a TOML file of at most {MAX_TOML_BYTES:,} bytes"
-        )
+        raise InputError(where, f"is {size:,} bytes long", f"a TOML file of at most {MAX_TOML_BYTES:,} bytes")
     depth = toml_depth(text)
     if depth > MAX_TOML_DEPTH:
         raise InputError(
@@ -90,7 +88,9 @@ def check_safety_factor(value: float, where: str) -> float:
     low, high = SAFETY_FACTOR_RANGE
     if not (math.isfinite(value) and low <= value <= high):
         raise InputError(
-            where, f"{_plain(value)} is out of range", f"a safety factor between {_plain(low)} and {_plain(high)}"
+            where,
+            f"{_plain(value)} is out of range",
+            f"a safety factor between {_plain(low)} and {_plain(high)}",
         )
     return value
 

@@ -10,12 +10,13 @@ from typing import Any
 import numpy as np
 import pandas as pd
 
+from selector.outputs.cells import neutral
 from selector.outputs.files import check_output, ensure_folder, write_bytes_atomic, write_text_atomic
 from selector.outputs.tables import flat_frame
 
 
 def _plain(value: Any) -> Any:
-    """A cell value for a spreadsheet: numbers stay numbers, NaN and ±inf become blank, lists text."""
+    """A cell value for a spreadsheet: numbers stay numbers, NaN and ±inf blank, text never a formula."""
     if isinstance(value, bool | np.bool_):
         return bool(value)
     if isinstance(value, int | np.integer):
@@ -23,10 +24,10 @@ def _plain(value: Any) -> Any:
     if isinstance(value, float | np.floating):
         return float(value) if math.isfinite(value) else None
     if isinstance(value, list | tuple):
-        return "; ".join(str(v) for v in value)
+        return neutral("; ".join(str(v) for v in value))
     if value is None or value is pd.NA:
         return None
-    return value
+    return neutral(value)
 
 
 def spec_rows(selection: Any) -> list[tuple[str, str, Any]]:
@@ -72,7 +73,7 @@ def _sheet(workbook: Any, title: str, header: list[str], rows: list[list[Any]], 
     from openpyxl.utils import get_column_letter
 
     sheet = workbook.create_sheet(title)
-    sheet.append(header)
+    sheet.append([neutral(name) for name in header])
     for row in rows:
         sheet.append([_plain(v) for v in row])
     for cell in sheet[1]:

@@ -17,6 +17,7 @@ import pandas as pd
 from selector.errors import InputError
 from selector.inputs.properties import PROPERTIES, RATINGS
 from selector.inputs.units import format_number
+from selector.outputs.cells import csv_text, markdown_text
 
 SUMMARY_PROPERTIES = ("rho", "E", "sigma_y", "sigma_ts", "T_max", "price")
 LENGTH_UNIT = {"si": "mm", "us": "in"}
@@ -149,14 +150,19 @@ def _cell(value: Any) -> str:
 def render(frame: pd.DataFrame, fmt: str) -> str:
     """A frame as a terminal table, CSV, JSON or Markdown."""
     if fmt == "csv":
-        return frame.to_csv(index=False).rstrip("\n")
+        return csv_text(frame)
     if fmt == "json":
         return json.dumps(_json_records(frame), indent=2, allow_nan=False)
     cells = [[_cell(v) for v in row] for row in frame.itertuples(index=False)]
     header = [str(c) for c in frame.columns]
     if fmt == "md":
-        lines = ["| " + " | ".join(header) + " |", "|" + "|".join("---" for _ in header) + "|"]
-        lines += ["| " + " | ".join(c.replace("|", "\\|") for c in row) + " |" for row in cells]
+        lines = [
+            "| " + " | ".join(markdown_text(h) for h in header) + " |",
+            "|" + "|".join("---" for _ in header) + "|",
+        ]
+        lines += [
+            "| " + " | ".join(markdown_text(c).replace("|", "\\|") for c in row) + " |" for row in cells
+        ]
         return "\n".join(lines)
     widths = [max(len(h), *(len(r[i]) for r in cells)) if cells else len(h) for i, h in enumerate(header)]
     lines = ["  ".join(h.ljust(w) for h, w in zip(header, widths, strict=True)).rstrip()]
@@ -340,7 +346,7 @@ def render_selection(
         flat = flat_frame(selection, units, show_all)
         if top:
             flat = flat[flat["rank"].isna() | (flat["rank"] <= top)] if show_all else flat.head(top)
-        return flat.to_csv(index=False).rstrip("\n")
+        return csv_text(flat)
     shown = _compact(frame, units)
     body = render(shown, "md" if fmt == "md" else "table")
     if selection.derivations:
@@ -362,6 +368,8 @@ def render_selection(
         "",
         f"CAUTION: {selection.caution}",
     ]
+    if fmt == "md":
+        head = [markdown_text(line) for line in head]
     return "\n".join([*head, "", body, "", *foot])
 
 
@@ -482,6 +490,6 @@ def render_section(section: Any, fmt: str, units: str = "si") -> str:
         rows.append({"property": labels[key], "value": shown, "unit": item["unit"]})
     frame = pd.DataFrame(rows)
     if fmt == "csv":
-        return frame.to_csv(index=False).rstrip("\n")
+        return csv_text(frame)
     text = render(frame, "md" if fmt == "md" else "table")
     return f"{text}\n\nJ: {section.J_method}\nZt: {section.Zt_method}"
