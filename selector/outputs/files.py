@@ -54,13 +54,6 @@ def _mode_for(target: Path) -> int:
     return stat.S_IMODE(info.st_mode)
 
 
-def _write_all(fd: int, data: bytes) -> None:
-    view = memoryview(data)
-    while view:
-        view = view[os.write(fd, view) :]
-    os.fsync(fd)
-
-
 def write_bytes_atomic(path: Path, data: bytes) -> None:
     """Write ``data`` to ``path`` via a temporary file in the same folder, then rename.
 
@@ -79,11 +72,11 @@ def write_bytes_atomic(path: Path, data: bytes) -> None:
     except OSError as exc:
         raise OutputError(str(path), f"cannot write in {str(folder)!r} ({exc.strerror})") from None
     try:
-        try:
-            os.fchmod(fd, mode)
-            _write_all(fd, data)
-        finally:
-            os.close(fd)
+        os.fchmod(fd, mode)
+        with os.fdopen(fd, "wb") as handle:
+            handle.write(data)
+            handle.flush()
+            os.fsync(handle.fileno())
         os.replace(tmp, target)
     except OSError as exc:
         Path(tmp).unlink(missing_ok=True)

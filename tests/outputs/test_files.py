@@ -94,16 +94,27 @@ def test_symlink_to_a_read_only_file_is_refused(tmp_path) -> None:
 def test_full_disk_gives_a_clean_error_and_keeps_the_previous_file(tmp_path, monkeypatch) -> None:
     target = tmp_path / "report.html"
     target.write_text("the previous report\n")
-    written = []
+    real_fdopen = os.fdopen
 
-    def full_disk(fd: int, data) -> int:  # the first chunk goes, then the disk is full
-        if written:
+    class FullDisk:
+        """A file whose disk fills after the first few bytes."""
+
+        def __init__(self, handle):
+            self.handle = handle
+
+        def __enter__(self):
+            return self
+
+        def __exit__(self, *exc):
+            self.handle.close()
+            return False
+
+        def write(self, data):
+            self.handle.write(data[:4])
             raise OSError(errno.ENOSPC, os.strerror(errno.ENOSPC))
-        written.append(len(data))
-        return min(len(data), 4)
 
-    monkeypatch.setattr(files.os, "write", full_disk)
-    with pytest.raises(OutputError, match="No space left on device"):
+    monkeypatch.setattr(files.os, "fdopen", lambda fd, mode: FullDisk(real_fdopen(fd, mode)))
+    with pytest.raises(OutputError, match=r"No space left on device.*previous file is unchanged"):
         files.write_bytes_atomic(target, b"a much longer new report\n")
     monkeypatch.undo()
     assert target.read_text() == "the previous report\n"
