@@ -17,6 +17,10 @@ from typing import Any
 
 import pytest
 
+BROWSER_WAIT_MS = 30_000
+"""The longest any browser action or ``expect`` assertion waits, fit for a loaded two-core CI
+machine (a bound on waiting for a condition, never a pause)."""
+
 CHROMIUM_ARGS = (
     "--no-sandbox",
     "--disable-gpu",
@@ -72,8 +76,9 @@ class PageLog:
 def chromium() -> Iterator[Any]:
     """A headless Chromium browser (Playwright ``Browser``), closed afterwards."""
     path = need_browser()
-    from playwright.sync_api import sync_playwright
+    from playwright.sync_api import expect, sync_playwright
 
+    expect.set_options(timeout=BROWSER_WAIT_MS)  # set_default_timeout does not reach expect
     with sync_playwright() as p:
         browser = p.chromium.launch(executable_path=path, args=list(CHROMIUM_ARGS))
         try:
@@ -95,6 +100,8 @@ def chromium_page(browser: Any = None, width: int = 1200, height: int = 800) -> 
             yield log
         return
     context = browser.new_context(viewport={"width": width, "height": height})
+    context.set_default_timeout(BROWSER_WAIT_MS)
+    context.set_default_navigation_timeout(BROWSER_WAIT_MS)
     page = context.new_page()
     log = PageLog(page)
 

@@ -122,7 +122,8 @@ def test_hostile_class_name_shows_as_text_and_runs_nothing(browser, tmp_path):
         assert EVIL in (log.page.locator("g.annotation").filter(has_text="1 ").first.text_content() or "")
         assert EVIL in (log.page.locator(".gtitle").first.text_content() or "")
         assert log.page.evaluate("document.querySelectorAll('img').length") == 0
-        log.page.wait_for_timeout(100)  # let a hostile onerror handler fire, if any were loaded
+        log.page.wait_for_load_state("load")  # every resource loaded, so any onerror handler has run
+        log.page.evaluate("() => new Promise(done => setTimeout(done, 0))")  # and the task queue drained
         assert log.dialogs == []
         assert log.page_errors == []
 

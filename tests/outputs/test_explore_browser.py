@@ -8,7 +8,6 @@ Plotly sends arrays base64-encoded, so drawn elements are counted in the DOM.
 from __future__ import annotations
 
 import threading
-import time
 import urllib.request
 from collections.abc import Iterator
 from typing import Any
@@ -20,29 +19,23 @@ import pytest
 
 from selector.outputs.explore.server import bind, make_app
 from selector.outputs.explore.state import initial_controls, load_start, spec_data
-from tests.browser import chromium, chromium_page, need_browser
+from tests.browser import BROWSER_WAIT_MS, chromium, chromium_page, need_browser
 
 pytestmark = pytest.mark.browser
 
-WAIT_MS = 20_000
+WAIT_MS = BROWSER_WAIT_MS
 """Longest wait for the page to answer a change (a bound, not a pause)."""
-POLL_S = 0.05
 
 
-def _wait_until_up(url: str, limit_s: float = 20.0) -> None:
-    """Poll the server (127.0.0.1 only) until it answers, for at most ``limit_s`` seconds."""
+def _wait_until_up(url: str, limit_s: float = BROWSER_WAIT_MS / 1000) -> None:
+    """One request to the server (127.0.0.1 only), waiting at most ``limit_s`` seconds for its answer.
+
+    The socket is bound and listening before the serving thread starts, so the request
+    queues until the server takes it: no polling and no pause.
+    """
     assert urlsplit(url).hostname == "127.0.0.1"
-    deadline = time.monotonic() + limit_s
-    last: Exception | None = None
-    while time.monotonic() < deadline:
-        try:
-            with urllib.request.urlopen(url, timeout=2) as reply:
-                if reply.status == 200:
-                    return
-        except OSError as exc:
-            last = exc
-        time.sleep(POLL_S)
-    raise AssertionError(f"the explorer did not answer at {url} within {limit_s} s: {last}")
+    with urllib.request.urlopen(url, timeout=limit_s) as reply:
+        assert reply.status == 200, f"the explorer answered {reply.status} at {url}"
 
 
 @pytest.fixture(scope="module")
