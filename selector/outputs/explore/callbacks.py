@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import json
 import math
 import re
 from collections.abc import Mapping, Sequence
@@ -205,29 +206,44 @@ _CONTROL_INPUTS: tuple[tuple[str, str], ...] = (
 )
 
 
+def _text(value: Any) -> str:
+    """A control's value as text: a request that sends a number, list or object where the page
+    sends text gets that control's own error message, not a failure."""
+    if value is None:
+        return ""
+    return value if isinstance(value, str) else json.dumps(value, default=str)
+
+
+def _texts(value: Any) -> tuple[str, ...]:
+    """A multiple-choice control's values as text (one odd value becomes one odd choice)."""
+    if value is None:
+        return ()
+    return tuple(_text(v) for v in value) if isinstance(value, list | tuple) else (_text(value),)
+
+
 def controls_from(values: Sequence[Any]) -> Controls:
-    """Controls from the page's values, in the order of ``_CONTROL_INPUTS``."""
+    """Controls from the page's values, in the order of ``_CONTROL_INPUTS``; any value is accepted."""
     n = len(SCREEN_ROWS)
     (objective, constraints, limit, factor, free, index, units, families) = values[:8]
     ops, texts = values[8 : 8 + n], values[8 + n : 8 + 2 * n]
     x, y, mode, line_value, chosen = values[8 + 2 * n :]
     return Controls(
-        objective=objective or "",
-        constraints=tuple(constraints or ()),
-        stiffness_limit=limit or "",
-        safety_factor="" if factor is None else str(factor),
-        free=free or "",
-        index=index or "",
-        units=units or "si",
-        families=tuple(families or ()),
+        objective=_text(objective),
+        constraints=_texts(constraints),
+        stiffness_limit=_text(limit),
+        safety_factor=_text(factor),
+        free=_text(free),
+        index=_text(index),
+        units=units if units in ("si", "us") else "si",
+        families=_texts(families),
         screens=tuple(
-            (op or row.op, text or "") for row, op, text in zip(SCREEN_ROWS, ops, texts, strict=True)
+            (_text(op) or row.op, _text(text)) for row, op, text in zip(SCREEN_ROWS, ops, texts, strict=True)
         ),
-        x=x or "",
-        y=y or "",
+        x=_text(x),
+        y=_text(y),
         line_mode=mode if mode in LINE_MODES else "leader",
-        line_value="" if line_value is None else str(line_value),
-        chosen=chosen or None,
+        line_value=_text(line_value),
+        chosen=_text(chosen) or None,
     )
 
 

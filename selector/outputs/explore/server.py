@@ -12,12 +12,15 @@ import dash
 
 from selector.errors import InputError
 from selector.outputs.explore.callbacks import wire
+from selector.outputs.explore.guard import install as install_guard
 from selector.outputs.explore.layout import layout
 from selector.outputs.explore.state import initial_controls, load_start
 
 HOST = "127.0.0.1"
 """The only address the explorer listens on."""
 DEFAULT_PORT = 8050
+PORT_KEY = "SELECTOR_PORT"
+"""The Flask config entry holding the port served, for the Host check."""
 
 _ASSETS = Path(__file__).with_name("assets")
 INDEX = (
@@ -46,6 +49,7 @@ def make_app(spec_path: str | Path | None = None) -> dash.Dash:
     app.index_string = INDEX
     app.layout = layout(start, controls)
     wire(app, start)
+    install_guard(app.server, lambda: app.server.config.get(PORT_KEY))
     return app
 
 
@@ -99,6 +103,7 @@ def bind(app: dash.Dash, port: int = DEFAULT_PORT) -> Any:
         )
     finally:
         sock.close()
+    app.server.config[PORT_KEY] = server.port
     return server
 
 
