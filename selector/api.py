@@ -26,8 +26,7 @@ def run_spec(
 
     check_output(output, protect)
     spec = load_spec(spec_path)
-    base = Path(spec_path).parent
-    spec_files = [str(base / f) for f in spec.materials.files]
+    spec_files = list(spec.materials.files)  # resolved beside the spec by load_spec
     check_output(output, spec_files)
     builtin = spec.materials.builtin and not no_builtin
     table = load_materials([*spec_files, *files], builtin=builtin)
@@ -86,7 +85,6 @@ def report_from_spec(
     target = check_report_path(output)
     ensure_folder(target)
     selection = run_spec(spec_path, files, no_builtin, protect=protect, output=target)
-    base = Path(spec_path).parent
-    protect += [str(base / f) for f in selection.spec.materials.files]
+    protect += list(selection.spec.materials.files)
     text = Path(spec_path).read_text(encoding="utf-8")
     return write_report(selection, target, text, Path(spec_path).name, units, draws, seed, protect)

@@ -7,6 +7,7 @@ from __future__ import annotations
 
 import sys
 from pathlib import Path
+from typing import IO, Any
 
 import click
 
@@ -22,6 +23,31 @@ units_option = click.option(
 )
 
 
+class UserInputError(click.ClickException):
+    """A library ``SelectorError`` as click shows it: ``error: ...`` on stderr, one line per problem."""
+
+    def __init__(self, error: Exception, exit_code: int = 2) -> None:
+        super().__init__(str(error))
+        self.messages = [str(e) for e in getattr(error, "errors", (error,))]
+        self.exit_code = exit_code
+
+    def show(self, file: IO[Any] | None = None) -> None:
+        for message in self.messages:
+            click.echo(f"error: {message}", err=True, file=file)
+
+
+class SelectorGroup(click.Group):
+    """A command group that turns user-input errors from the library into click exceptions."""
+
+    def invoke(self, ctx: click.Context) -> Any:
+        from selector.errors import SelectorError
+
+        try:
+            return super().invoke(ctx)
+        except SelectorError as exc:
+            raise UserInputError(exc, exc.exit_code) from exc
+
+
 def _emit(text: str, output: str | None) -> None:
     if output:
         from selector.outputs.files import write_text_atomic
@@ -32,7 +58,7 @@ def _emit(text: str, output: str | None) -> None:
         click.echo(text)
 
 
-@click.group(context_settings={"help_option_names": ["-h", "--help"]})
+@click.group(cls=SelectorGroup, context_settings={"help_option_names": ["-h", "--help"]})
 @click.version_option(__version__, prog_name="selector")
 def cli() -> None:
     """Material selection for the concept design of load-bearing parts.
@@ -356,15 +382,10 @@ def explore(spec, port, no_browser) -> None:
 
 
 def main() -> None:
-    """Entry point: turn user-input errors into one clear line and exit status 2."""
-    from selector.errors import SelectorError
-
+    """Entry point: user-input errors (click exceptions, see SelectorGroup) as one line each, exit 2."""
     try:
         cli.main(standalone_mode=False)
         sys.stdout.flush()
-    except SelectorError as exc:
-        click.echo(f"error: {exc}", err=True)
-        sys.exit(exc.exit_code)
     except OSError as exc:  # stdout full or closed: say so once, and keep Python's exit flush quiet
         from selector.outputs.files import silence_stdout
 

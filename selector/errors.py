@@ -7,7 +7,11 @@ raises; only the CLI prints and exits (status 2).
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import dataclass
+
+Location = tuple[str | int, ...]
+"""Where a problem sits in a nested input, as keys, e.g. ``("constraint", 0, "max_deflection")``."""
 
 
 class SelectorError(Exception):
@@ -36,12 +40,32 @@ class InputError(SelectorError, ValueError):
         where: location, e.g. ``"spec.toml: constraint[0].max_deflection"``.
         what: what was wrong, including the offending value.
         expected: what would have been accepted.
+        location: the same place as keys, for programs (``()`` when not inside a spec).
     """
 
-    def __init__(self, where: str, what: str, expected: str = "") -> None:
+    def __init__(self, where: str, what: str, expected: str = "", location: Location = ()) -> None:
         self.problem = Problem(where, what, expected)
         self.where, self.what, self.expected = where, what, expected
+        self.location = tuple(location)
         super().__init__(str(self.problem))
+
+
+class SpecError(InputError):
+    """A spec has one or more problems; every one is kept in ``errors`` and listed, one per line.
+
+    ``where``, ``what``, ``expected`` and ``location`` are those of the first problem.
+    """
+
+    def __init__(self, errors: Sequence[InputError]) -> None:
+        if not errors:
+            raise ValueError("SpecError needs at least one problem")
+        self.errors = tuple(errors)
+        first = self.errors[0]
+        super().__init__(first.where, first.what, first.expected, first.location)
+        self.args = ("\n".join(str(e) for e in self.errors),)
+
+    def __str__(self) -> str:
+        return str(self.args[0])
 
 
 class DataFileError(SelectorError, ValueError):

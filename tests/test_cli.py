@@ -25,11 +25,28 @@ def run():
     return invoke
 
 
-def _main(*args: str, cwd: Path | None = None) -> subprocess.CompletedProcess:
-    """Run the real entry point (as a user would), capturing its streams."""
-    return subprocess.run(
-        [sys.executable, "-m", "selector", *args], capture_output=True, text=True, cwd=cwd, check=False
+def _main(*args: str):
+    """Run a command in-process through click's standalone mode (stdout and stderr kept apart).
+
+    A user-input error must end the command through ``SystemExit`` (exit status 2), never
+    through another exception, which would be a traceback for a user.
+    """
+    result = CliRunner().invoke(cli, list(args))
+    assert result.exception is None or isinstance(result.exception, SystemExit), result.exception
+    return result
+
+
+def test_entry_point_reports_a_bad_spec_in_one_line(tmp_path):
+    """The installed entry point (a real process) prints one error line and exits 2."""
+    spec = tmp_path / "bad.toml"
+    spec.write_text('[part]\nfunction = "beam"\nlenght = "1 m"\n', encoding="utf-8")
+    done = subprocess.run(
+        [sys.executable, "-m", "selector", "rank", str(spec)], capture_output=True, text=True, check=False
     )
+    assert done.returncode == 2
+    assert done.stdout == ""
+    assert done.stderr.startswith(f"error: {spec}: part.lenght: unknown key 'lenght'; did you mean 'length'?")
+    assert done.stderr.count("\n") == 1
 
 
 def _assert_not_imported(args: list[str], modules: tuple[str, ...]) -> None:
@@ -73,7 +90,7 @@ def test_materials_list_us_units(run):
 
 def test_materials_show_unknown_id_is_one_line():
     result = _main("materials", "show", "alumminium")
-    assert result.returncode == 2
+    assert result.exit_code == 2
     assert result.stderr.startswith("error: materials show: no class with id 'alumminium'")
     assert "Traceback" not in result.stderr
 
@@ -130,7 +147,7 @@ def test_rank_bad_spec_is_one_line(tmp_path):
     spec = tmp_path / "bad.toml"
     spec.write_text('[part]\nfunction = "beam"\nlenght = "1 m"\n', encoding="utf-8")
     result = _main("rank", str(spec))
-    assert result.returncode == 2
+    assert result.exit_code == 2
     assert result.stderr.strip().count("\n") == 0
     assert "part.lenght: unknown key 'lenght'; did you mean 'length'?" in result.stderr
 
@@ -140,7 +157,7 @@ def test_rank_refuses_to_overwrite_its_spec(tmp_path):
     spec.write_text((EXAMPLES / "camera-dolly-boom.toml").read_text(encoding="utf-8"), encoding="utf-8")
     before = spec.read_bytes()
     result = _main("rank", str(spec), "-o", str(spec))
-    assert result.returncode == 2
+    assert result.exit_code == 2
     assert "refusing to write over an input file" in result.stderr
     assert spec.read_bytes() == before
 
@@ -166,13 +183,13 @@ def test_section_json(run):
 
 def test_section_bad_dimension_is_one_line():
     result = _main("section", "tube", "d=40mm", "t=30 furlongs")
-    assert result.returncode == 2
+    assert result.exit_code == 2
     assert result.stderr.startswith("error: section tube: t:")
 
 
 def test_demo_writes_files(tmp_path):
     result = _main("demo", "--out", str(tmp_path / "demo"))
-    assert result.returncode == 0, result.stderr
+    assert result.exit_code == 0, result.stderr
     assert "wrote" in result.stdout
     for name in ("shortlist.csv", "chart.html", "report.html"):
         assert (tmp_path / "demo" / name).exists()
@@ -198,7 +215,7 @@ def test_rank_bad_exchange_is_one_line():
     result = _main(
         "rank", str(EXAMPLES / "camera-dolly-boom.toml"), "--tradeoff", "cost", "--exchange", "10 MPa"
     )
-    assert result.returncode == 2
+    assert result.exit_code == 2
     assert result.stderr.startswith("error: --exchange:")
 
 
@@ -216,11 +233,22 @@ def test_materials_list_table_is_narrow(run):
 
 def test_unknown_family_is_refused():
     result = _main("materials", "list", "--family", "metals")
-    assert result.returncode == 2
+    assert result.exit_code == 2
     assert "metals" in result.stderr and "Traceback" not in result.stderr
 
 
 def test_repeated_dimension_is_refused():
     result = _main("section", "rectangle", "b=1mm", "b=3mm", "h=4mm")
-    assert result.returncode == 2
+    assert result.exit_code == 2
     assert result.stderr.startswith("error: section rectangle: b: b is given twice")
+
+
+def test_every_spec_problem_gets_its_own_error_line(tmp_path):
+    spec = tmp_path / "bad.toml"
+    spec.write_text('[part]\nfunction = "bem"\nlenght = "1 m"\n', encoding="utf-8")
+    result = _main("rank", str(spec))
+    assert result.exit_code == 2
+    lines = result.stderr.splitlines()
+    assert len(lines) == 2
+    assert lines[0].startswith(f"error: {spec}: part.function: 'bem' is not a function")
+    assert lines[1].startswith(f"error: {spec}: part.lenght: unknown key 'lenght'")

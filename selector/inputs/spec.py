@@ -6,13 +6,14 @@ nearest valid key for a misspelt one.
 
 from __future__ import annotations
 
+import os
 import tomllib
 from pathlib import Path
 from typing import Annotated, Any
 
 from pydantic import AfterValidator, BaseModel, ConfigDict, Field, ValidationError, field_validator
 
-from selector.errors import InputError
+from selector.errors import InputError, SpecError
 from selector.inputs.limits import check_range, check_toml_text
 from selector.inputs.properties import FAMILIES, PROPERTIES, RATINGS
 from selector.mechanics.loadcases import CONSTRAINTS, FREE_VARIABLES, FUNCTIONS
@@ -167,35 +168,44 @@ def _fields_of(model: type[BaseModel], loc: tuple[int | str, ...]) -> list[str]:
     return list(current.model_fields)
 
 
+def _problem(error: Any, source: str) -> InputError:
+    """One pydantic validation error as an InputError with its field path and location."""
+    loc = tuple(error["loc"])
+    where = f"{source}: {_location(loc)}"
+    if error["type"] == "extra_forbidden":
+        key = str(loc[-1])
+        return InputError(where, f"unknown key {key!r}", did_you_mean(key, _fields_of(Spec, loc)), loc)
+    if error["type"] == "missing":
+        return InputError(where, "required field is missing", "see examples/", loc)
+    message = error["msg"].removeprefix("Value error, ")
+    what, _, expected = message.partition("; ")
+    if not expected:
+        what, expected = f"{error.get('input')!r} is not valid", message
+    return InputError(where, what, expected, loc)
+
+
 def spec_from_dict(data: dict[str, Any], source: str = "spec") -> Spec:
-    """Validate a spec given as nested dicts; raises InputError on the first problem."""
+    """Validate a spec given as nested dicts.
+
+    Raises:
+        SpecError: listing every problem found, each with its field path and location.
+    """
     try:
         return Spec.model_validate(data)
     except ValidationError as exc:
-        errors = exc.errors()
-        first = errors[0]
-        loc = tuple(first["loc"])
-        path = _location(loc)
-        more = f" (and {len(errors) - 1} more problems)" if len(errors) > 1 else ""
-        if first["type"] == "extra_forbidden":
-            key = str(loc[-1])
-            raise InputError(
-                f"{source}: {path}", f"unknown key {key!r}{more}", did_you_mean(key, _fields_of(Spec, loc))
-            ) from None
-        if first["type"] == "missing":
-            raise InputError(
-                f"{source}: {path}", f"required field is missing{more}", "see examples/"
-            ) from None
-        message = first["msg"].removeprefix("Value error, ")
-        what, _, expected = message.partition("; ")
-        value = first.get("input")
-        if not expected:
-            what, expected = f"{value!r} is not valid", message
-        raise InputError(f"{source}: {path}", what + more, expected) from None
+        raise SpecError([_problem(e, source) for e in exc.errors()]) from None
+
+
+def _beside(spec: Spec, folder: Path) -> Spec:
+    """The spec with its materials files resolved against ``folder`` (the spec file's own)."""
+    if not spec.materials.files:
+        return spec
+    files = [os.path.abspath(folder / f) for f in spec.materials.files]
+    return spec.model_copy(update={"materials": spec.materials.model_copy(update={"files": files})})
 
 
 def load_spec(path: str | Path) -> Spec:
-    """Read and validate a spec file (TOML)."""
+    """Read and validate a spec file (TOML); its materials files are found beside it."""
     file = Path(path)
     try:
         text = file.read_text(encoding="utf-8")
@@ -210,7 +220,7 @@ def load_spec(path: str | Path) -> Spec:
         data = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
         raise InputError(str(file), f"is not valid TOML: {exc}", "TOML as in examples/") from None
-    return spec_from_dict(data, source=str(file))
+    return _beside(spec_from_dict(data, source=str(file)), file.parent)
 
 
 def parse_dimension_args(shape: str, args: tuple[str, ...] | list[str]) -> dict[str, float]:

@@ -6,10 +6,14 @@ from pathlib import Path
 
 import pytest
 
-from selector.errors import InputError
+from selector.errors import InputError, SpecError
+from selector.inputs.materials import load_materials
 from selector.inputs.spec import load_spec, spec_from_dict
+from selector.pipeline.selection import select
 
-EXAMPLES = sorted((Path(__file__).parents[2] / "examples").glob("*.toml"))
+EXAMPLES_DIR = Path(__file__).parents[2] / "examples"
+EXAMPLES = sorted(EXAMPLES_DIR.glob("*.toml"))
+DATA = Path(__file__).parents[1] / "data"
 
 
 def test_there_are_examples_for_every_function_family():
@@ -71,3 +75,43 @@ def test_unreadable_files_are_clear(tmp_path):
         load_spec(bad)
     with pytest.raises(InputError, match="no such file"):
         load_spec(tmp_path / "missing.toml")
+
+
+def test_every_problem_is_listed_with_its_location():
+    data = {
+        "part": {"function": "bem", "lenght": "1 m"},
+        "constraint": [{"type": "stiffness", "max_deflexion": "4 mm"}],
+    }
+    with pytest.raises(SpecError) as err:
+        spec_from_dict(data, "x.toml")
+    assert [e.location for e in err.value.errors] == [
+        ("part", "function"),
+        ("part", "lenght"),
+        ("constraint", 0, "max_deflexion"),
+    ]
+    lines = str(err.value).splitlines()
+    assert len(lines) == 3
+    assert lines[0].startswith("x.toml: part.function: 'bem' is not a function; did you mean 'beam'?")
+    assert lines[1].startswith("x.toml: part.lenght: unknown key 'lenght'; did you mean 'length'?")
+    assert lines[2].startswith(
+        "x.toml: constraint[0].max_deflexion: unknown key 'max_deflexion'; did you mean 'max_deflection'?"
+    )
+    assert err.value.location == ("part", "function")  # the first problem's
+
+
+def test_materials_files_are_found_beside_the_spec_from_any_folder(tmp_path, monkeypatch):
+    folder = tmp_path / "project"
+    folder.mkdir()
+    (folder / "supplier.csv").write_bytes((DATA / "good_us.csv").read_bytes())
+    spec_text = (EXAMPLES_DIR / "greenhouse-tie-rod.toml").read_text(encoding="utf-8")
+    (folder / "rod.toml").write_text(
+        spec_text + '\n[materials]\nfiles = ["supplier.csv"]\nbuiltin = false\n', encoding="utf-8"
+    )
+    elsewhere = tmp_path / "elsewhere"
+    elsewhere.mkdir()
+    monkeypatch.chdir(elsewhere)
+    spec = load_spec(Path("..") / "project" / "rod.toml")
+    assert spec.materials.files == [str(folder / "supplier.csv")]
+    table = select(spec).table
+    expected = set(load_materials([DATA / "good_us.csv"], builtin=False)["id"])
+    assert set(table["id"]) == expected

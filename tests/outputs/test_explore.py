@@ -386,19 +386,11 @@ def test_the_explore_command_passes_its_options(monkeypatch):
 
 
 def test_the_explore_command_reports_a_bad_spec_cleanly(tmp_path):
-    import subprocess
-    import sys
+    from selector.cli import cli
 
-    run = subprocess.run(
-        [sys.executable, "-m", "selector", "explore", str(tmp_path / "nope.toml"), "--no-browser"],
-        capture_output=True,
-        text=True,
-        check=False,
-        timeout=60,
-    )
-    assert run.returncode == 2
-    assert run.stderr.startswith("error: ") and "no such file" in run.stderr
-    assert "Traceback" not in run.stderr
+    result = CliRunner().invoke(cli, ["explore", str(tmp_path / "nope.toml"), "--no-browser"])
+    assert result.exit_code == 2 and isinstance(result.exception, SystemExit)
+    assert result.stderr.startswith("error: ") and "no such file" in result.stderr
 
 
 def test_dash_is_a_runtime_dependency():

@@ -5,8 +5,6 @@ from __future__ import annotations
 import io
 import json
 import os
-import subprocess
-import sys
 from pathlib import Path
 
 import numpy as np
@@ -264,26 +262,18 @@ def test_cli_refuses_to_write_over_the_spec(tmp_path):
     spec = tmp_path / "boom.toml"
     spec.write_text(SPEC.read_text(encoding="utf-8"), encoding="utf-8")
     before = spec.read_bytes()
-    done = subprocess.run(
-        [sys.executable, "-m", "selector", "rank", str(spec), "-o", str(spec)],
-        capture_output=True,
-        text=True,
-        check=False,
-    )
-    assert done.returncode == 2
+    done = CliRunner().invoke(cli, ["rank", str(spec), "-o", str(spec)])
+    assert isinstance(done.exception, SystemExit)
+    assert done.exit_code == 2
     assert done.stderr.startswith("error:") and "refusing" in done.stderr
     assert "Traceback" not in done.stderr
     assert spec.read_bytes() == before
 
 
 def test_cli_missing_folder_for_xlsx_is_one_line(tmp_path):
-    done = subprocess.run(
-        [sys.executable, "-m", "selector", "rank", str(SPEC), "-o", str(tmp_path / "no" / "s.xlsx")],
-        capture_output=True,
-        text=True,
-        check=False,
-    )
-    assert done.returncode == 2
+    done = CliRunner().invoke(cli, ["rank", str(SPEC), "-o", str(tmp_path / "no" / "s.xlsx")])
+    assert isinstance(done.exception, SystemExit)
+    assert done.exit_code == 2
     assert done.stderr.startswith("error:") and "does not exist" in done.stderr
     assert "Traceback" not in done.stderr
     assert len(done.stderr.strip().splitlines()) == 1

@@ -3,8 +3,6 @@
 from __future__ import annotations
 
 import os
-import subprocess
-import sys
 from html.parser import HTMLParser
 from pathlib import Path
 from typing import ClassVar
@@ -312,7 +310,8 @@ def test_writing_over_the_spec_is_refused(tmp_path):
         api.report_from_spec(spec, spec, robust_draws=0)
     assert spec.read_bytes() == before
     result = CliRunner().invoke(cli, ["report", str(SPEC), "-o", str(SPEC)])
-    assert isinstance(result.exception, OutputError)
+    assert result.exit_code == 2 and isinstance(result.exception, SystemExit)
+    assert result.stderr.startswith(f"error: {SPEC}: refusing to write over an input file")
 
 
 def test_report_needs_an_html_name(tmp_path):
@@ -320,26 +319,27 @@ def test_report_needs_an_html_name(tmp_path):
         api.report_from_spec(SPEC, tmp_path / "report.pdf", robust_draws=0)
 
 
-def _main(*args: str) -> subprocess.CompletedProcess:
-    return subprocess.run(
-        [sys.executable, "-m", "selector", *args], capture_output=True, text=True, check=False
-    )
+def _main(*args: str):
+    """Run a command in-process; a user-input error ends it through SystemExit only."""
+    result = CliRunner().invoke(cli, list(args))
+    assert result.exception is None or isinstance(result.exception, SystemExit), result.exception
+    return result
 
 
 def test_missing_output_folder_is_one_clean_line(tmp_path):
     done = _main("report", str(SPEC), "-o", str(tmp_path / "absent" / "report.html"), "--robust", "0")
-    assert done.returncode == 2
+    assert done.exit_code == 2
     assert done.stderr.startswith("error:")
     assert "does not exist" in done.stderr and "Traceback" not in done.stderr
     assert len(done.stderr.strip().splitlines()) == 1
     assert not (tmp_path / "absent").exists()
 
 
-def test_cli_refuses_the_spec_as_output_in_a_subprocess(tmp_path):
+def test_cli_refuses_the_spec_as_output(tmp_path):
     spec = tmp_path / "boom.toml"
     spec.write_text(SPEC.read_text(encoding="utf-8"), encoding="utf-8")
     done = _main("report", str(spec), "-o", str(spec))
-    assert done.returncode == 2
+    assert done.exit_code == 2
     assert done.stderr.startswith("error:") and "refusing" in done.stderr
     assert "Traceback" not in done.stderr
 
