@@ -186,6 +186,28 @@ PROPERTIES: dict[str, Property] = {
 }
 """Every property, keyed by symbol, in the order of the data table."""
 
+DERIVED_PROPERTIES: dict[str, Property] = {
+    "sigma_R": _p(
+        "sigma_R",
+        "fatigue strength at the load ratio (Goodman)",
+        "MPa",
+        "MPa",
+        1e6,
+        "ksi",
+        "ksi",
+        1e-4,
+        5_000.0,
+    ),
+}
+"""Properties computed from stored ones for one requirement (columns added by the pipeline, never
+read from a data file): sigma_R from sigma_e and sigma_ts at the fatigue load ratio."""
+
+
+def property_of(symbol: str) -> Property:
+    """A stored or derived property by symbol (KeyError for neither)."""
+    return PROPERTIES[symbol] if symbol in PROPERTIES else DERIVED_PROPERTIES[symbol]
+
+
 FAMILIES: tuple[str, ...] = (
     "metal",
     "polymer",

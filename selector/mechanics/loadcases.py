@@ -17,9 +17,10 @@ properties: E, G, sigma_y, sigma_c [Pa], rho [kg/m³].
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 
 from selector.errors import InputError
+from selector.mechanics import failure_modes as fm
 from selector.mechanics.monomial import Monomial as M
 from selector.suggest import did_you_mean
 
@@ -29,7 +30,7 @@ FUNCTIONS = ("tie", "beam", "column", "shaft", "panel", "plate", "cylinder", "sp
 BEAM_SUPPORTS = ("cantilever", "simply-supported", "fixed-fixed")
 BEAM_LOADS = ("end", "centre", "uniform")
 COLUMN_SUPPORTS = ("pinned-pinned", "fixed-free", "fixed-pinned", "fixed-fixed")
-CONSTRAINTS = ("stiffness", "strength", "buckling")
+CONSTRAINTS = ("stiffness", "strength", "buckling", *fm.FAILURE_CONSTRAINTS)
 
 # δ = F·L³/(C·E·I) and M_max = F·L/C_M for each (support, load); F is the total load.
 # Common practice (Roark, Table 8.1; Gere & Timoshenko) — from memory.
@@ -95,7 +96,15 @@ def _check_choice(value: str | None, choices: tuple[str, ...], where: str) -> st
 
 
 def load_case(function: str, support: str | None = None, load: str | None = None) -> LoadCase:
-    """The load case for a function and, where it matters, its support and load."""
+    """The load case for a function and, where it matters, its support and load.
+
+    Every case carries fracture and fatigue on its peak stress, and natural frequency
+    where it has a first mode (``_with_failure_modes``).
+    """
+    return _with_failure_modes(_base_case(function, support, load), support)
+
+
+def _base_case(function: str, support: str | None, load: str | None) -> LoadCase:
     _check_choice(function, FUNCTIONS, "part.function")
     if function in ("beam", "panel"):
         support = _check_choice(support or "simply-supported", BEAM_SUPPORTS, "part.support")
@@ -268,3 +277,109 @@ def _spring() -> LoadCase:
         allowed_free=("scale",),
         notes=("the spring is taken as uniformly stressed; a leaf or coil spring stores a fixed fraction",),
     )
+
+
+SHAFT_FATIGUE_RATIO = math.sqrt(3)
+"""Shafts: the von Mises equivalent of the shear stress, √3·τ, is set against σ_e (and σ_ts)."""
+
+
+def _frequency(case: LoadCase, support: str | None) -> tuple[M, str, str | None] | None:
+    """(utilisation, equation, note) of the lowest natural frequency, or None."""
+    fn = case.function
+    if fn in ("beam", "panel"):
+        support = support or "simply-supported"
+        lam = fm.BEAM_EIGENVALUES[support]
+        note = (
+            "panel frequency: the first bending mode of a strip on its supports (ν neglected, "
+            "which underestimates the plate's frequency by about 5 %)"
+            if fn == "panel"
+            else None
+        )
+        return (
+            fm.bending_frequency(support),
+            f"first bending mode f₁ = (λL)²/(2π·L²)·√(E·I/(ρ·A)) ≥ f_min, λL = {lam:.6g} "
+            "(Euler–Bernoulli, own mass only)",
+            note,
+        )
+    if fn == "shaft":
+        return (
+            fm.bending_frequency("simply-supported"),
+            "whirling: first bending mode of a simply supported shaft "
+            "f₁ = π/(2·L²)·√(E·I/(ρ·A)) ≥ f_min (own mass only)",
+            "shaft whirling: the first critical speed is the first bending frequency of a simply "
+            "supported shaft with its own mass",
+        )
+    if fn == "tie":
+        return (
+            fm.axial_frequency(),
+            "first axial mode f₁ = √(E/ρ)/(2L) ≥ f_min, both ends held (independent of the area)",
+            None,
+        )
+    if fn == "plate":
+        return (
+            fm.plate_frequency(),
+            f"first mode of a plate simply supported on all edges f₁₁ = (π/2)·(1/L² + 1/b²)·"
+            f"√(D/(ρ·t)) ≥ f_min, D = E·t³/(12(1−ν²)), ν = {fm.PLATE_NU}",
+            None,
+        )
+    return None
+
+
+def _with_failure_modes(case: LoadCase, support: str | None) -> LoadCase:
+    """The case with fracture and fatigue on its peak stress and its first natural frequency."""
+    stress = case.responses["stress"]
+    notes = list(case.notes)
+    fatigue_ratio = SHAFT_FATIGUE_RATIO if case.function == "shaft" else 1.0
+    utilisation = dict(case.utilisation) | {
+        "fracture": fm.fracture(stress),
+        "fatigue": fm.fatigue(stress, fatigue_ratio),
+    }
+    equations = dict(case.equations) | {"fracture": fm.FRACTURE_EQUATION, "fatigue": fm.FATIGUE_EQUATION}
+    if case.function == "shaft":
+        equations["fracture"] += "; in torsion the largest principal stress equals τ"
+        equations["fatigue"] += "; in torsion σ is the von Mises equivalent √3·τ"
+    if case.function in ("column", "plate"):
+        notes.append(
+            "fracture and fatigue are checked on the compressive stress (conservative: cracks "
+            "close under compression)"
+        )
+    frequency = _frequency(case, support)
+    if frequency is not None:
+        utilisation["frequency"], equations["frequency"], note = frequency
+        if note:
+            notes.append(note)
+    return replace(case, utilisation=utilisation, equations=equations, notes=tuple(notes))
+
+
+def with_requirement(case: LoadCase, criterion: str | None = None, load_ratio: float = -1.0) -> LoadCase:
+    """The case with a vessel's fracture criterion and the fatigue load ratio R applied.
+
+    ``criterion`` replaces the given-crack fracture check: leak-before-break takes a
+    crack as deep as the wall at the working stress; yield-before-break asks that the
+    given crack not run before the wall yields (a check on the class, free of size).
+    """
+    utilisation, equations = dict(case.utilisation), dict(case.equations)
+    if criterion is not None:
+        _check_choice(criterion, fm.CRITERIA, "constraint.criterion")
+        if case.function not in fm.VESSELS:
+            raise InputError(
+                "constraint.criterion",
+                f"{criterion!r} applies to pressure vessels, not a {case.function}",
+                "function cylinder or sphere, or no criterion",
+            )
+        utilisation["fracture"] = (
+            fm.leak_before_break(case.responses["stress"])
+            if criterion == "leak-before-break"
+            else fm.yield_before_break()
+        )
+        equations["fracture"] = fm.CRITERION_EQUATIONS[criterion]
+    if not -1.0 <= load_ratio < 1.0:
+        raise InputError(
+            "constraint.load_ratio",
+            f"{load_ratio!r} is outside the range handled",
+            "R = min load / max load from -1 (fully reversed) up to, not including, 1",
+        )
+    if load_ratio != fm.FULLY_REVERSED:
+        utilisation["fatigue"] = fm.with_load_ratio(utilisation["fatigue"], load_ratio)
+        equations["fatigue"] += f"; R = {load_ratio:g}"
+    return replace(case, utilisation=utilisation, equations=equations)

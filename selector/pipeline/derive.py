@@ -8,21 +8,37 @@ index is the inverse of the material factor, normalised. Nothing is looked up.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
+from fractions import Fraction
 
 from selector.errors import InputError
-from selector.inputs.properties import PROPERTIES
-from selector.mechanics.loadcases import FREE_VARIABLES, LoadCase, load_case
+from selector.inputs.properties import DERIVED_PROPERTIES, PROPERTIES
+from selector.mechanics.loadcases import FREE_VARIABLES, LoadCase, load_case, with_requirement
 from selector.mechanics.monomial import Monomial as M
 from selector.mechanics.monomial import format_monomial, format_monomial_latex
 from selector.mechanics.objectives import OBJECTIVE_FACTORS, OBJECTIVE_WORDS, OBJECTIVES
 from selector.suggest import did_you_mean
 
-SYMBOLS_TEXT = {"rho": "ρ", "sigma_y": "σ_y", "sigma_c": "σ_c", "delta": "δ", "theta": "θ", "price": "C_m"}
+SYMBOLS_TEXT = {
+    "rho": "ρ",
+    "sigma_y": "σ_y",
+    "sigma_c": "σ_c",
+    "delta": "δ",
+    "theta": "θ",
+    "price": "C_m",
+    "sigma_e": "σ_e",
+    "sigma_R": "σ_R",
+    "sigma_ts": "σ_ts",
+}
 SYMBOLS_LATEX = {
     "rho": r"\rho",
     "sigma_y": r"\sigma_y",
     "sigma_c": r"\sigma_c",
+    "sigma_e": r"\sigma_e",
+    "sigma_R": r"\sigma_R",
+    "K_IC": r"K_{IC}",
+    "f_min": r"f_{min}",
+    "L_e": "L_e",
     "delta": r"\delta",
     "theta": r"\theta",
     "price": "C_m",
@@ -30,7 +46,7 @@ SYMBOLS_LATEX = {
     "k_I": "k_I",
     "k_Z": "k_Z",
 }
-PROPERTY_SYMBOLS = frozenset(PROPERTIES)
+PROPERTY_SYMBOLS = frozenset(PROPERTIES) | frozenset(DERIVED_PROPERTIES)
 
 
 @dataclass(frozen=True)
@@ -131,7 +147,7 @@ class Derivation:
 
     Attributes:
         case: the load case.
-        constraint: stiffness, strength or buckling.
+        constraint: stiffness, strength, buckling, fracture, fatigue or frequency.
         objective: mass, cost, co2 or volume.
         geometry: the section model used.
         solution: the free variable at the limit (monomial in loads, geometry, properties).
@@ -140,6 +156,8 @@ class Derivation:
         material_factor: the part set by the material (minimise it).
         index: the merit index to maximise, normalised (a monomial of properties).
         steps: the derivation as readable lines; ``steps_latex`` the same in LaTeX.
+        screen: the constraint does not involve the free variable, so it sizes nothing and
+            only checks the class (``solution`` and ``objective_value`` are then zero).
     """
 
     case: LoadCase
@@ -153,6 +171,7 @@ class Derivation:
     index: M
     steps: tuple[str, ...]
     steps_latex: tuple[str, ...]
+    screen: bool = False
 
     @property
     def exponents(self) -> dict[str, float]:
@@ -169,10 +188,15 @@ class Derivation:
 
 
 def normalise(index: M) -> M:
-    """Scale the exponents so density has power −1 (or the largest power is ±1); coefficient 1."""
+    """Scale the exponents so density has power −1 (else the smallest integer powers); coefficient 1."""
     rho = index.power_of("rho")
-    scale = abs(rho) if rho else max((abs(v) for _, v in index.powers), default=1)
-    return M._make(1.0, [(k, v / scale) for k, v in index.powers])
+    if rho:
+        return M._make(1.0, [(k, v / abs(rho)) for k, v in index.powers])
+    if not index.powers:
+        return M._make(1.0, [])
+    lcm = math.lcm(*(v.denominator for _, v in index.powers))
+    gcd = math.gcd(*(v.numerator * lcm // v.denominator for _, v in index.powers))
+    return M._make(1.0, [(k, Fraction(v * lcm, abs(gcd))) for k, v in index.powers])
 
 
 def derive(
@@ -182,14 +206,34 @@ def derive(
     free: str = "scale",
     support: str | None = None,
     load: str | None = None,
+    criterion: str | None = None,
+    load_ratio: float = -1.0,
 ) -> Derivation:
-    """Derive the merit index for one constraint of a part."""
-    case = load_case(function, support, load)
-    return derive_for_case(case, constraint, objective, free)
+    """Derive the merit index for one constraint of a part.
+
+    ``criterion`` (leak-before-break, yield-before-break) qualifies a vessel's fracture
+    constraint; ``load_ratio`` R a fatigue constraint.
+    """
+    if criterion is not None and constraint != "fracture":
+        raise InputError(
+            "--criterion",
+            f"a criterion qualifies the fracture constraint, not {constraint}",
+            "--constraint fracture",
+        )
+    case = with_requirement(load_case(function, support, load), criterion, load_ratio)
+    return derive_for_case(case, constraint, objective, free, criterion)
 
 
-def derive_for_case(case: LoadCase, constraint: str, objective: str, free: str) -> Derivation:
-    """Derive the merit index for ``constraint`` of an already chosen load case."""
+def derive_for_case(
+    case: LoadCase, constraint: str, objective: str, free: str, criterion: str | None = None
+) -> Derivation:
+    """Derive the merit index for ``constraint`` of an already chosen load case.
+
+    A constraint the free variable does not enter (a tie's axial frequency, yield before
+    break) sizes nothing: it is a screen on the class, returned with ``screen`` set.
+    With ``criterion = "leak-before-break"`` the index is the criterion's: the wall at its
+    yield limit, the largest pressure at which a crack as deep as the wall is stable.
+    """
     if objective not in OBJECTIVES:
         raise InputError(
             "objective.minimize", f"{objective!r} is not an objective", did_you_mean(objective, OBJECTIVES)
@@ -202,25 +246,26 @@ def derive_for_case(case: LoadCase, constraint: str, objective: str, free: str) 
         )
     geo = geometry(case, free)
     x = geo.symbol
-    limit = case.utilisation[constraint]
-    for name, value in geo.quantities.items():
-        limit = limit.substitute(name, value)
-    volume = case.volume
-    for name, value in geo.quantities.items():
-        volume = volume.substitute(name, value)
+    limit = _in_free_variable(case.utilisation[constraint], geo)
+    volume = _in_free_variable(case.volume, geo)
     target = OBJECTIVE_FACTORS[objective] * volume
-    solution = limit.solve_for(x, M.of(1))
-    value = target.substitute(x, solution)
-    material, rest = value.split(PROPERTY_SYMBOLS)
-    index = normalise(material**-1)
     word = OBJECTIVE_WORDS[objective]
     fmt = lambda m: format_monomial(m, SYMBOLS_TEXT)  # noqa: E731
     tex = lambda m: format_monomial_latex(m, SYMBOLS_LATEX)  # noqa: E731
-    steps = (
+    head = (
         f"Objective: minimise {word} = {fmt(target)} (x = {x} is free)",
         f"Constraint ({constraint}): {case.equations[constraint]}",
         f"Section: {geo.description}",
         f"At the limit the utilisation is 1: {fmt(limit)} = 1",
+    )
+    if limit.power_of(x) == 0:
+        return _screen(case, constraint, objective, geo, limit, head, tex)
+    solution = limit.solve_for(x, M.of(1))
+    value = target.substitute(x, solution)
+    material, rest = value.split(PROPERTY_SYMBOLS)
+    index = normalise(material**-1)
+    steps = (
+        *head,
         f"Solve for the free variable: {x} = {fmt(solution)}",
         f"Substitute into the objective: {word} = [{fmt(rest)}] · [{fmt(material)}]",
         f"The loads and geometry fix the first factor; the material fixes the second. Minimising "
@@ -234,4 +279,61 @@ def derive_for_case(case: LoadCase, constraint: str, objective: str, free: str) 
         rf"\text{{{objective}}} = \left[{tex(rest)}\right] \left[{tex(material)}\right]",
         rf"M = {format_monomial_latex(index, SYMBOLS_LATEX, coef=False)}",
     )
-    return Derivation(case, constraint, objective, geo, solution, value, rest, material, index, steps, latex)
+    derivation = Derivation(
+        case, constraint, objective, geo, solution, value, rest, material, index, steps, latex
+    )
+    if criterion == "leak-before-break" and constraint == "fracture":
+        return _leak_before_break(derivation, tex)
+    return derivation
+
+
+def _in_free_variable(m: M, geo: Geometry) -> M:
+    """``m`` with the section quantities written in the free variable."""
+    for name, value in geo.quantities.items():
+        m = m.substitute(name, value)
+    return m
+
+
+def _screen(case, constraint, objective, geo, limit, head, tex) -> Derivation:
+    """A constraint free of the free variable: M ≥ threshold, a check on the class."""
+    material, rest = limit.split(PROPERTY_SYMBOLS)
+    index = normalise(material**-1)
+    symbol, power = index.powers[0]
+    k = power / (material**-1).power_of(symbol)  # index = (1/material)^k
+    threshold = rest**k
+    text = format_monomial(index, SYMBOLS_TEXT, coef=False)
+    fmt = lambda m: format_monomial(m, SYMBOLS_TEXT)  # noqa: E731
+    steps = (
+        *head,
+        f"The free variable {geo.symbol} does not appear: {constraint} sets no size, it is a "
+        f"screen on the class",
+        f"The part passes when M = {text} ≥ {fmt(threshold)}",
+    )
+    latex = (
+        rf"\text{{limit: }} {tex(limit)} = 1",
+        rf"\text{{screen: }} {format_monomial_latex(index, SYMBOLS_LATEX, coef=False)} \geq {tex(threshold)}",
+    )
+    zero = M._make(0.0, limit.powers)  # sizes nothing, but names what the check needs
+    return Derivation(
+        case, constraint, objective, geo, zero, M.of(0.0), rest, material, index, steps, latex, screen=True
+    )
+
+
+def _leak_before_break(d: Derivation, tex) -> Derivation:
+    """The leak-before-break index: the wall at yield, then the largest safe pressure."""
+    case, geo = d.case, d.geometry
+    at_yield = _in_free_variable(case.utilisation["strength"], geo).solve_for(geo.symbol, M.of(1))
+    crack = _in_free_variable(case.utilisation["fracture"], geo).substitute(geo.symbol, at_yield)
+    material, _ = crack.split(PROPERTY_SYMBOLS)
+    index = normalise(material**-1)
+    fmt = lambda m: format_monomial(m, SYMBOLS_TEXT)  # noqa: E731
+    text = format_monomial(index, SYMBOLS_TEXT, coef=False)
+    steps = (
+        *d.steps[:-1],
+        f"Criterion (leak before break): with the wall at its yield limit {geo.symbol} = {fmt(at_yield)}, "
+        f"a crack as deep as the wall has utilisation {fmt(crack)} ≤ 1",
+        f"The largest pressure that leaks before it breaks rises with the merit index M = {text}; "
+        f"the part is sized by the same check, {geo.symbol} = {fmt(d.solution)}",
+    )
+    latex = (*d.steps_latex[:-1], rf"M = {format_monomial_latex(index, SYMBOLS_LATEX, coef=False)}")
+    return replace(d, index=index, steps=steps, steps_latex=latex)
