@@ -16,6 +16,7 @@ from pydantic import AfterValidator, BaseModel, ConfigDict, Field, ValidationErr
 from selector.errors import InputError, SpecError
 from selector.inputs.limits import check_range, check_toml_text
 from selector.inputs.properties import FAMILIES, PROPERTIES, RATINGS
+from selector.mechanics.failure_modes import CRITERIA
 from selector.mechanics.loadcases import CONSTRAINTS, FREE_VARIABLES, FUNCTIONS
 from selector.mechanics.objectives import OBJECTIVES
 from selector.suggest import did_you_mean
@@ -88,12 +89,21 @@ class Objective(_Strict):
 
 
 class Constraint(_Strict):
-    """One requirement the part must meet; limits are quantities with units."""
+    """One requirement the part must meet; limits are quantities with units.
+
+    fracture: ``crack_length`` a, ``geometry_factor`` Y (default 1.12), or a vessel's
+    ``criterion``; fatigue: ``load_ratio`` R (default −1); frequency: ``min_frequency``.
+    """
 
     type: Annotated[str, _one_of(CONSTRAINTS, "a constraint type")]
     max_deflection: str | None = None
     max_twist: str | None = None
     safety_factor: float = Field(default=1.0, gt=0, allow_inf_nan=False)
+    crack_length: str | None = None
+    geometry_factor: float | None = Field(default=None, gt=0, allow_inf_nan=False)
+    criterion: Annotated[str, _one_of(CRITERIA, "a fracture criterion")] | None = None
+    load_ratio: float | None = Field(default=None, ge=-1, lt=1, allow_inf_nan=False)
+    min_frequency: str | None = None
 
 
 class Materials(_Strict):
@@ -101,7 +111,7 @@ class Materials(_Strict):
     builtin: bool = True
 
 
-SCREEN_KEYS = (*PROPERTIES, *RATINGS, "families", "exclude_families", "exclude")
+SCREEN_KEYS = (*PROPERTIES, *RATINGS, "families", "exclude_families", "exclude", "allow_brittle")
 
 
 class Spec(_Strict):
@@ -135,6 +145,9 @@ class Spec(_Strict):
                 if not isinstance(limit, list) or any(f not in FAMILIES for f in limit):
                     bad = limit if not isinstance(limit, list) else [f for f in limit if f not in FAMILIES]
                     raise ValueError(f"{key} = {bad!r}; expected a list of: {', '.join(FAMILIES)}")
+            elif key == "allow_brittle":
+                if not isinstance(limit, bool):
+                    raise ValueError(f"allow_brittle = {limit!r}; expected true or false")
             elif key == "exclude":
                 if not isinstance(limit, list) or not all(isinstance(i, str) for i in limit):
                     raise ValueError(f"exclude = {limit!r}; expected a list of class ids")

@@ -13,7 +13,7 @@ from collections.abc import Mapping
 import numpy as np
 import pandas as pd
 
-from selector.inputs.properties import PROPERTIES
+from selector.inputs.properties import property_of
 from selector.pipeline.screen import REJECTED
 
 
@@ -21,7 +21,7 @@ def property_arrays(table: pd.DataFrame, symbols: list[str] | frozenset[str]) ->
     """low, high and geometric-mean arrays (stored units) for each symbol."""
     low, high, mid = {}, {}, {}
     for s in symbols:
-        prop = PROPERTIES[s]
+        prop = property_of(s)
         lo = table[prop.low].to_numpy(dtype=float)
         hi = table[prop.high].to_numpy(dtype=float)
         low[s], high[s] = lo, hi
@@ -66,7 +66,7 @@ def rank_by_index(
         for i in np.flatnonzero(missing):
             row = out.iloc[i]
             absent = [
-                s for s in needs if np.isnan(row[PROPERTIES[s].low]) or np.isnan(row[PROPERTIES[s].high])
+                s for s in needs if np.isnan(row[property_of(s).low]) or np.isnan(row[property_of(s).high])
             ]
             reasons.iat[i] = [*reasons.iat[i], f"no data for {', '.join(absent) or 'the index'}"]
         out["reasons"] = reasons

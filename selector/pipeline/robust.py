@@ -34,7 +34,7 @@ import numpy as np
 import pandas as pd
 
 from selector.errors import InputError
-from selector.inputs.properties import PROPERTIES
+from selector.inputs.properties import DERIVED_PROPERTIES, PROPERTIES, property_of
 from selector.suggest import did_you_mean
 
 DEFAULT_SEED = 20261202
@@ -46,6 +46,8 @@ BLOCK_ELEMENTS = 4_000_000
 """Draws are processed in blocks of about this many draw × class values."""
 _PROPERTY_STREAM = {symbol: i for i, symbol in enumerate(PROPERTIES)}
 _TIE_STREAM = len(PROPERTIES)
+_PROPERTY_STREAM |= {symbol: _TIE_STREAM + 1 + i for i, symbol in enumerate(DERIVED_PROPERTIES)}
+MATERIAL_SYMBOLS = frozenset(PROPERTIES) | frozenset(DERIVED_PROPERTIES)
 
 KeyFunction = Callable[[Mapping[str, np.ndarray]], np.ndarray]
 
@@ -150,7 +152,7 @@ def _ranges(
     """Stored-unit low and high of each symbol; a range that cannot be sampled is an error."""
     low, high = {}, {}
     for s in symbols:
-        prop = PROPERTIES[s]
+        prop = property_of(s)
         lo = cand[prop.low].to_numpy(dtype=float)
         hi = cand[prop.high].to_numpy(dtype=float)
         bad = ~(np.isfinite(lo) & np.isfinite(hi) & (lo <= hi)) | ((lo <= 0) if prop.log else False)
@@ -205,13 +207,13 @@ def _model(selection) -> tuple[pd.DataFrame, tuple[str, ...], KeyFunction]:
 
         used = set(OBJECTIVE_FACTORS[selection.spec.objective.minimize].symbols)
     else:
-        used = set().union(*(d.objective_value.symbols for d in derivations)) & set(PROPERTIES)
+        used = set().union(*(d.objective_value.symbols for d in derivations)) & MATERIAL_SYMBOLS
     symbols = tuple(sorted(used))
-    factors = {s: PROPERTIES[s].si_factor for s in symbols}
+    factors = {s: property_of(s).si_factor for s in symbols}
     # The closed-form objective can differ from the exactly sized part (thin-wall
     # section models); scale each class so both agree at its typical properties.
     mid = {
-        s: np.sqrt(cand[PROPERTIES[s].low].to_numpy(float) * cand[PROPERTIES[s].high].to_numpy(float)) * f
+        s: np.sqrt(cand[property_of(s).low].to_numpy(float) * cand[property_of(s).high].to_numpy(float)) * f
         for s, f in factors.items()
     }
     closed = np.broadcast_to(objective_samples(derivations, design, mid), len(cand))
@@ -249,7 +251,7 @@ def _rank_histogram(
     drawn = set(symbols) if sampled is None else set(sampled) & set(symbols)
     streams = {s: _stream(seed, _PROPERTY_STREAM[s]) for s in drawn}
     ties = _stream(seed, _TIE_STREAM)
-    fixed = {s: _typical(low[s], high[s], PROPERTIES[s].log) for s in symbols if s not in drawn}
+    fixed = {s: _typical(low[s], high[s], property_of(s).log) for s in symbols if s not in drawn}
     block = max(1, BLOCK_ELEMENTS // n)
     offsets = (np.arange(n) * n)[None, :]
     positions = np.arange(n)[None, :]
@@ -257,7 +259,7 @@ def _rank_histogram(
         m = min(block, draws - start)
         values = dict(fixed)
         for s in sorted(drawn):
-            values[s] = sample(low[s], high[s], m, streams[s], distribution, PROPERTIES[s].log, clip)
+            values[s] = sample(low[s], high[s], m, streams[s], distribution, property_of(s).log, clip)
         k = np.broadcast_to(key(values), (m, n))
         order = np.argsort(k, axis=1, kind="stable")
         ordered = np.take_along_axis(k, order, axis=1)
@@ -384,7 +386,7 @@ def sensitivity(
         rows.append(
             {
                 "property": s,
-                "name": PROPERTIES[s].name,
+                "name": property_of(s).name,
                 "leader": cand["id"].iat[leader],
                 "leader_p_best": p,
                 "p_best_se": math.sqrt(p * (1 - p) / draws),

@@ -52,6 +52,7 @@ class Screens:
     families: tuple[str, ...] = ()
     exclude_families: tuple[str, ...] = ()
     exclude: tuple[str, ...] = ()
+    allow_brittle: bool = False
 
 
 def parse_limit(symbol: str, text: str, where: str = "screen") -> Limit:
@@ -85,6 +86,7 @@ def parse_screens(screen: Mapping[str, Any], where: str = "screen") -> Screens:
         families=tuple(screen.get("families", ())),
         exclude_families=tuple(screen.get("exclude_families", ())),
         exclude=tuple(screen.get("exclude", ())),
+        allow_brittle=bool(screen.get("allow_brittle", False)),
     )
 
 
@@ -200,4 +202,58 @@ def qualifying_ranges(screened: pd.DataFrame, screens: Screens) -> pd.DataFrame:
             out[prop.low] = np.where(partly & (low < limit.value) & (high >= limit.value), limit.value, low)
         else:
             out[prop.high] = np.where(partly & (high > limit.value) & (low <= limit.value), limit.value, high)
+    return out
+
+
+TENSILE_FUNCTIONS = ("tie", "beam", "panel", "shaft", "cylinder", "sphere", "spring")
+"""Functions whose strength check is in tension or bending (columns and plates carry compression)."""
+STRENGTH_CHECKS = ("strength", "fatigue")
+
+
+def brittle_rule_applies(function: str, constraint_types: tuple[str, ...], screens: Screens) -> bool:
+    """True when brittle classes must leave the ranking: a tensile or bending strength check
+    without a fracture constraint, and no ``allow_brittle``."""
+    return (
+        function in TENSILE_FUNCTIONS
+        and any(t in STRENGTH_CHECKS for t in constraint_types)
+        and "fracture" not in constraint_types
+        and not screens.allow_brittle
+    )
+
+
+def reject_brittle(table: pd.DataFrame) -> pd.DataFrame:
+    """A copy with classes whose K_IC is below the brittle threshold rejected (or passing partly).
+
+    The threshold (``BRITTLE_K_IC``, 15 MPa·m½) is common practice for deterministic design on
+    strength alone (no source). A class with part of its range above it passes partly, on that part.
+    """
+    from selector.mechanics.failure_modes import BRITTLE_K_IC
+
+    prop = PROPERTIES["K_IC"]
+    limit = Limit("K_IC", ">=", BRITTLE_K_IC, f">= {BRITTLE_K_IC:g} MPa·m½")
+    low, high = _range_of(table, limit)
+    missing, fail, part = _outcome(low, high, limit)
+    alive = (table["status"] != REJECTED).to_numpy()
+    missing, fail, part = missing & alive, fail & alive, part & alive
+    advice = "add a fracture constraint (crack_length) or set [screen] allow_brittle = true"
+    out = table.copy()
+    reasons = [list(r) for r in out["reasons"]]
+    for i in np.flatnonzero(missing):
+        reasons[i].append(f"no data for K_IC, so brittleness is unknown; {advice}")
+    for i in np.flatnonzero(fail):
+        reasons[i].append(
+            f"brittle: K_IC {format_number(low[i])}–{format_number(high[i])} {prop.label} is below "
+            f"{BRITTLE_K_IC:g} {prop.label}, too low for a part sized on strength alone; {advice}"
+        )
+    for i in np.flatnonzero(part):
+        reasons[i].append(
+            f"only part of K_IC {format_number(low[i])}–{format_number(high[i])} {prop.label} reaches "
+            f"{BRITTLE_K_IC:g} {prop.label} (brittle below it, for a part sized on strength alone)"
+        )
+    status = out["status"].to_numpy(dtype=object).copy()
+    status[missing | fail] = REJECTED
+    status[part & (status == PASSES)] = PARTLY
+    out["status"] = status
+    out["reasons"] = reasons
+    out[prop.low] = np.where(part, np.maximum(low, BRITTLE_K_IC), low)
     return out

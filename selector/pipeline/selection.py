@@ -12,8 +12,9 @@ from selector.errors import InputError
 from selector.inputs.limits import check_range, check_safety_factor
 from selector.inputs.properties import PROPERTIES
 from selector.inputs.spec import DIMENSION_FIELDS, QUANTITY_FIELDS, Spec
-from selector.mechanics.loadcases import load_case
+from selector.mechanics.loadcases import load_case, with_requirement
 from selector.mechanics.objectives import OBJECTIVE_UNITS
+from selector.pipeline import failure_limits as fl
 from selector.pipeline.derive import Derivation, derive_for_case
 from selector.pipeline.rank import monomial_index, rank_by_index, rank_by_value, rerank_by_index
 from selector.pipeline.screen import (
@@ -21,8 +22,10 @@ from selector.pipeline.screen import (
     REJECTED,
     Screens,
     apply_screens,
+    brittle_rule_applies,
     parse_screens,
     qualifying_ranges,
+    reject_brittle,
 )
 from selector.pipeline.sizing import DEFAULT_DIMS, Design, missing_inputs, size_parts
 
@@ -40,6 +43,9 @@ FIELD_OF_SYMBOL = {v: k for k, v in SYMBOL_OF_FIELD.items()} | {
     "theta": "max_twist",
     "d": "section.d",
     "h": "section.h",
+    "a": "crack_length",
+    "f_min": "min_frequency",
+    "L_e": "length and width",
 }
 CAUTION = (
     "Preliminary selection only: use certified design-allowable data for the chosen grade, "
@@ -138,7 +144,7 @@ def _limits(spec: Spec) -> dict[str, dict[str, float]]:
                 f"{where}.max_twist",
                 c.max_twist,
             )
-        limits[c.type] = lim
+        limits[c.type] = lim | fl.failure_limits(c, where, spec.part.function)
     return limits
 
 
@@ -188,6 +194,7 @@ def design_of(spec: Spec, shape: str) -> Design:
     }
     limits = _limits(spec)
     fn, free = spec.part.function, spec.section.free
+    values |= fl.derived_geometry(fn, values)
     _check_section(fn, shape, free)
     if fn == "panel":
         shape = "rectangle"
@@ -297,7 +304,12 @@ def select(
         raise InputError(
             "spec: constraint", "the spec has no [[constraint]] and no index", "at least one constraint table"
         )
-    case = load_case(spec.part.function, spec.part.support, spec.part.load)
+    for i, c in enumerate(spec.constraint):
+        fl.failure_limits(c, f"constraint[{i}]", spec.part.function)  # refuse misplaced fields first
+    criterion, load_ratio = fl.requirement_of(spec.constraint)
+    case = with_requirement(
+        load_case(spec.part.function, spec.part.support, spec.part.load), criterion, load_ratio
+    )
     free = spec.section.free
     # With every dimension fixed the part is only checked; the index shown is the one for
     # the first free variable the load case allows (the shape scaled at fixed proportions).
@@ -308,9 +320,26 @@ def select(
         if c.type in seen:
             raise InputError(f"spec: constraint[{i}].type", f"{c.type!r} is given twice", "each type once")
         seen.add(c.type)
-        derivations.append(derive_for_case(case, c.type, spec.objective.minimize, derive_free))
+        derivations.append(derive_for_case(case, c.type, spec.objective.minimize, derive_free, c.criterion))
+    derivations.sort(key=lambda d: d.screen)  # a check on the class never ranks
+    if derivations and all(d.screen for d in derivations):
+        raise InputError(
+            "spec: constraint",
+            f"{', '.join(d.constraint for d in derivations)} sets no size for this {case.function}",
+            "a constraint that does, such as strength or stiffness",
+        )
     screens = parse_screens(spec.screen)
-    screened = qualifying_ranges(apply_screens(materials.reset_index(drop=True), screens), screens)
+    screened = apply_screens(materials.reset_index(drop=True), screens)
+    if brittle_rule_applies(case.function, tuple(c.type for c in spec.constraint), screens):
+        screened = reject_brittle(screened)
+    screened = qualifying_ranges(screened, screens)
+    if load_ratio != -1.0:
+        screened = fl.with_fatigue_strength(screened, load_ratio)
+    if derivations:
+        ranked_on = set(derivations[0].exponents) if expression is None else set()
+        needs = fl.needed_properties({d.constraint: case.utilisation[d.constraint] for d in derivations})
+        needs = {k: tuple(s for s in v if s not in ranked_on) for k, v in needs.items()}
+        screened = fl.reject_missing(screened, needs)  # the index ranking reports its own gaps
     if expression is not None:
         low, high, typ, needs = expression_index(screened, expression)
         table = rank_by_index(screened, low, high, typ, conservative, needs=needs)

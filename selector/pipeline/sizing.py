@@ -22,7 +22,7 @@ import numpy as np
 import pandas as pd
 
 from selector.errors import InputError
-from selector.inputs.properties import PROPERTIES
+from selector.inputs.properties import DERIVED_PROPERTIES, PROPERTIES, property_of
 from selector.mechanics import sections as sec
 from selector.mechanics.objectives import OBJECTIVE_FACTORS
 from selector.pipeline.derive import Derivation
@@ -64,6 +64,8 @@ SIZED_COLUMNS = (
 )
 """Columns ``size_parts`` adds, present even when no class is sized."""
 FREE_DIMENSION = {"depth": "h", "width": "b", "thickness": "h", "wall": "t"}
+MATERIAL_SYMBOLS = frozenset(PROPERTIES) | frozenset(DERIVED_PROPERTIES)
+"""Symbols read from the materials table (stored properties and those the pipeline derives)."""
 
 
 SCALE_POWER = {"A": 2, "I": 4, "Imin": 4, "Z": 3, "J": 4, "Zt": 3}
@@ -120,15 +122,15 @@ def missing_inputs(derivations: list[Derivation], design: Design) -> list[str]:
     """Symbols the closed-form sizes need that the spec does not give."""
     need: set[str] = set()
     for d in derivations:
-        need |= set(d.solution.symbols) - set(PROPERTIES) - SHAPE_CONSTANTS
+        need |= set(d.solution.symbols) - MATERIAL_SYMBOLS - SHAPE_CONSTANTS
     have = set(design.values) | {k for lim in design.limits.values() for k in lim} | set(design.dims)
     return sorted(need - have)
 
 
 def _si(table: pd.DataFrame, symbols: set[str], pick: str) -> dict[str, np.ndarray]:
     out = {}
-    for s in symbols & set(PROPERTIES):
-        prop = PROPERTIES[s]
+    for s in symbols & MATERIAL_SYMBOLS:
+        prop = property_of(s)
         lo = table[prop.low].to_numpy(dtype=float) * prop.si_factor
         hi = table[prop.high].to_numpy(dtype=float) * prop.si_factor
         out[s] = {"low": lo, "high": hi, "mid": np.sqrt(lo * hi)}[pick]
@@ -274,7 +276,7 @@ def _objective_at_end(
     """One constraint's objective with each property at its unfavourable (or favourable) end."""
     props: dict[str, np.ndarray] = {}
     for symbol, power in d.objective_value.powers:
-        if symbol in PROPERTIES:
+        if symbol in MATERIAL_SYMBOLS:
             props |= _si(table, {symbol}, "high" if (power > 0) == worst else "low")
     return np.broadcast_to(d.objective_value.evaluate(props | _inputs(d, design, constants)), len(table))
 
@@ -327,6 +329,13 @@ def _one_part(row, x, derivations, design, mid, i, constants) -> dict[str, objec
     if design.free == "none" and util[governing] > 1 + CHECK_TOLERANCE:
         feasible = False
         warnings.append(f"the given part fails {governing} (utilisation {util[governing]:.2f})")
+    for d in derivations:
+        if d.screen and design.free != "none" and util[d.constraint] > 1 + CHECK_TOLERANCE:
+            feasible = False
+            warnings.append(
+                f"fails {d.constraint} (utilisation {util[d.constraint]:.2f}), which no size can "
+                f"change: it needs {d.index_text} above the class's value"
+            )
     volume = float(case.volume.evaluate(values))
     mass = volume * props["rho"]
     responses = {
