@@ -132,17 +132,30 @@ def materials_check(file, fmt) -> None:
 @cli.command()
 @click.argument("function")
 @click.option("--objective", default="mass", show_default=True, help="mass | cost | co2 | volume")
-@click.option("--constraint", default="stiffness", show_default=True, help="stiffness | strength | buckling")
+@click.option(
+    "--constraint",
+    default="stiffness",
+    show_default=True,
+    help="stiffness | strength | buckling | fracture | fatigue | frequency",
+)
 @click.option("--free", default="scale", show_default=True, help="scale | depth | width | thickness | wall")
 @click.option("--support", default=None, help="Beam or column end conditions.")
 @click.option("--load", default=None, help="Beam load: end | centre | uniform.")
+@click.option("--criterion", default=None, help="Vessel fracture: leak-before-break | yield-before-break.")
+@click.option(
+    "--load-ratio",
+    type=click.FloatRange(-1, 1, max_open=True),
+    default=-1.0,
+    show_default=True,
+    help="Fatigue: R = min load / max load.",
+)
 @format_option
-def derive(function, objective, constraint, free, support, load, fmt) -> None:
+def derive(function, objective, constraint, free, support, load, criterion, load_ratio, fmt) -> None:
     """Derive the merit index for FUNCTION and show the steps."""
     from selector.outputs import tables
     from selector.pipeline.derive import derive as run
 
-    result = run(function, constraint, objective, free, support, load)
+    result = run(function, constraint, objective, free, support, load, criterion, load_ratio)
     click.echo(tables.render_derivation(result, fmt or "table"))
 
 

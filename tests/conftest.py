@@ -25,7 +25,7 @@ def make_table(rows: list[dict]) -> pd.DataFrame:
         "sigma_ts": (20.0, 20.0),
         "sigma_c": (10.0, 10.0),
         "elongation": (5.0, 5.0),
-        "K_IC": (1.0, 1.0),
+        "K_IC": (50.0, 50.0),  # tough, so the brittle rule leaves these classes alone
         "sigma_e": (5.0, 5.0),
         "T_max": (100.0, 100.0),
         "T_min": (-50.0, -50.0),

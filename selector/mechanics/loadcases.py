@@ -73,6 +73,7 @@ class LoadCase:
         volume: material volume as a monomial in section and geometry.
         needs: symbols each constraint needs from the spec, by constraint type.
         allowed_free: free variables this case can be sized by.
+        notes: assumptions of the case; ``constraint_notes`` those of one constraint type.
     """
 
     function: str
@@ -83,6 +84,7 @@ class LoadCase:
     volume: M
     allowed_free: tuple[str, ...]
     notes: tuple[str, ...] = field(default=())
+    constraint_notes: dict[str, str] = field(default_factory=dict)
 
     @property
     def constraints(self) -> tuple[str, ...]:
@@ -328,7 +330,7 @@ def _frequency(case: LoadCase, support: str | None) -> tuple[M, str, str | None]
 def _with_failure_modes(case: LoadCase, support: str | None) -> LoadCase:
     """The case with fracture and fatigue on its peak stress and its first natural frequency."""
     stress = case.responses["stress"]
-    notes = list(case.notes)
+    notes: dict[str, str] = {}
     fatigue_ratio = SHAFT_FATIGUE_RATIO if case.function == "shaft" else 1.0
     utilisation = dict(case.utilisation) | {
         "fracture": fm.fracture(stress),
@@ -339,16 +341,16 @@ def _with_failure_modes(case: LoadCase, support: str | None) -> LoadCase:
         equations["fracture"] += "; in torsion the largest principal stress equals τ"
         equations["fatigue"] += "; in torsion σ is the von Mises equivalent √3·τ"
     if case.function in ("column", "plate"):
-        notes.append(
-            "fracture and fatigue are checked on the compressive stress (conservative: cracks "
-            "close under compression)"
-        )
+        for kind in ("fracture", "fatigue"):
+            notes[kind] = (
+                f"{kind} is checked on the compressive stress (conservative: cracks close under compression)"
+            )
     frequency = _frequency(case, support)
     if frequency is not None:
         utilisation["frequency"], equations["frequency"], note = frequency
         if note:
-            notes.append(note)
-    return replace(case, utilisation=utilisation, equations=equations, notes=tuple(notes))
+            notes["frequency"] = note
+    return replace(case, utilisation=utilisation, equations=equations, constraint_notes=notes)
 
 
 def with_requirement(case: LoadCase, criterion: str | None = None, load_ratio: float = -1.0) -> LoadCase:

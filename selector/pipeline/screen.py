@@ -225,7 +225,8 @@ def reject_brittle(table: pd.DataFrame) -> pd.DataFrame:
     """A copy with classes whose K_IC is below the brittle threshold rejected (or passing partly).
 
     The threshold (``BRITTLE_K_IC``, 15 MPa·m½) is common practice for deterministic design on
-    strength alone (no source). A class with part of its range above it passes partly, on that part.
+    strength alone (no source). A class with part of its range above it passes partly, on that part;
+    one without K_IC data keeps its status with a note saying it was not checked.
     """
     from selector.mechanics.failure_modes import BRITTLE_K_IC
 
@@ -239,7 +240,9 @@ def reject_brittle(table: pd.DataFrame) -> pd.DataFrame:
     out = table.copy()
     reasons = [list(r) for r in out["reasons"]]
     for i in np.flatnonzero(missing):
-        reasons[i].append(f"no data for K_IC, so brittleness is unknown; {advice}")
+        reasons[i].append(
+            "no data for K_IC: not checked for brittleness (give K_IC or a fracture constraint)"
+        )
     for i in np.flatnonzero(fail):
         reasons[i].append(
             f"brittle: K_IC {format_number(low[i])}–{format_number(high[i])} {prop.label} is below "
@@ -251,7 +254,7 @@ def reject_brittle(table: pd.DataFrame) -> pd.DataFrame:
             f"{BRITTLE_K_IC:g} {prop.label} (brittle below it, for a part sized on strength alone)"
         )
     status = out["status"].to_numpy(dtype=object).copy()
-    status[missing | fail] = REJECTED
+    status[fail] = REJECTED
     status[part & (status == PASSES)] = PARTLY
     out["status"] = status
     out["reasons"] = reasons

@@ -355,7 +355,12 @@ def select(
         table[f"index_{d.constraint}"] = extra
     if expression is None:
         table["index_with_shape"] = index_with_shape(table, first)
-    notes = list(case.notes)
+    notes = list(case.notes) + [
+        case.constraint_notes[d.constraint] for d in derivations if d.constraint in case.constraint_notes
+    ]
+    notes += [
+        f"{d.constraint} sets no size: it checks each class; {d.steps[-1]}" for d in derivations if d.screen
+    ]
     if (screened["status"] == PARTLY).any():
         notes.append("classes that pass partly are ranked on the part of their ranges that meets the screens")
     if free == "none":
