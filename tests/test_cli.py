@@ -197,10 +197,27 @@ def test_demo_writes_files(tmp_path):
 
 
 def test_rank_tradeoff_and_penalty(run):
+    """Each penalty is cost + α·mass from the shortlist's own sized parts, lowest first."""
     spec = str(EXAMPLES / "camera-dolly-boom.toml")
     result = run("rank", spec, "--tradeoff", "cost", "--exchange", "10 USD/kg", "--format", "json")
     assert result.exit_code == 0
-    assert "penalty" in result.output
+    penalties = json.loads(result.output)["tradeoff"]["penalty"]
+    shortlist = {r["id"]: r for r in json.loads(run("rank", spec, "--format", "json").output)}
+    alpha = 10.0  # USD per kg saved, as given
+    # Z = C + α·m (exchange-constant penalty; Ashby, Materials Selection in Mechanical Design,
+    # 4th ed., ch. 9, from memory), worked here from the plain shortlist's mass and cost
+    by_hand = {
+        i: r["cost"]["value"] + alpha * r["mass"]["value"]
+        for i, r in shortlist.items()
+        if r["mass"] is not None and r["cost"] is not None
+    }
+    assert {p["id"] for p in penalties} == set(by_hand)
+    for p in penalties:
+        assert p["penalty"]["unit"] == "USD"
+        assert p["penalty"]["value"] == pytest.approx(by_hand[p["id"]], rel=1e-12), p["id"]
+    ordered = sorted(by_hand, key=by_hand.get)
+    assert [p["id"] for p in penalties] == ordered
+    assert [p["penalty_rank"] for p in penalties][:3] == [1, 2, 3]
 
 
 def test_rank_robust_is_deterministic(run):

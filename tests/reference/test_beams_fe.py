@@ -61,13 +61,24 @@ def test_deflection_matches_fe(support, load):
     ours = case.responses["deflection"].evaluate({"F": F, "L": L, "E": E, "I": I_SECOND})
     fe, _ = _fe_beam(support, load)
     assert ours == pytest.approx(fe, rel=FE_TOLERANCE)  # anastruct FE result
+    # the stiffness constraint of the same case is at its limit when δ_max is the FE deflection
+    at_limit = case.utilisation["stiffness"].evaluate({"F": F, "L": L, "E": E, "I": I_SECOND, "delta": fe})
+    assert at_limit == pytest.approx(1.0, rel=FE_TOLERANCE)  # anastruct FE result
 
 
 @pytest.mark.parametrize(("support", "load"), sorted(BEAM_CONSTANTS))
 def test_peak_moment_matches_fe(support, load):
-    c_moment = BEAM_CONSTANTS[(support, load)][1]
+    case = load_case("beam", support, load)
+    z = 4.0e-6  # section modulus [m³], illustrative
+    stress = case.responses["stress"].evaluate({"F": F, "L": L, "Z": z})
     _, fe = _fe_beam(support, load)
-    assert F * L / c_moment == pytest.approx(fe, rel=FE_TOLERANCE)  # anastruct FE result
+    assert stress * z == pytest.approx(fe, rel=FE_TOLERANCE)  # anastruct FE result: M = σ·Z
+    # the strength constraint is at its limit when σ_y/SF is the FE peak stress M/Z
+    sf = 1.5
+    at_limit = case.utilisation["strength"].evaluate(
+        {"F": F, "L": L, "Z": z, "SF": sf, "sigma_y": sf * fe / z}
+    )
+    assert at_limit == pytest.approx(1.0, rel=FE_TOLERANCE)  # anastruct FE result
 
 
 # Effective-length factors K of the four ideal end conditions: 1, 2, 0.699, 0.5

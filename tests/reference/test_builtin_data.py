@@ -435,8 +435,15 @@ def test_every_source_key_is_defined_in_sources_md(raw):
 
 
 def test_every_row_names_a_source_and_a_note(raw):
-    assert (raw["source"].str.strip() != "").all()
-    assert (raw["note"].str.len() <= 120).all()
+    """Every class names its source and carries a short note of its own (grades, condition)."""
+    source, note = raw["source"].str.strip(), raw["note"].str.strip()
+    assert (source != "").all(), list(raw["id"][source == ""])
+    assert (note != "").all(), list(raw["id"][note == ""])
+    assert (note.str.len() <= 120).all(), list(raw["id"][note.str.len() > 120])
+    # a note says something the name does not: it is neither the name nor one of its words alone
+    names = raw["name"].str.strip().str.lower()
+    assert not (note.str.lower() == names).any(), list(raw["id"][note.str.lower() == names])
+    assert (note.str.split().str.len() >= 2).all(), list(raw["id"][note.str.split().str.len() < 2])
 
 
 def test_numeric_columns_read_as_numbers(table):
