@@ -182,6 +182,11 @@ PROPERTIES: dict[str, Property] = {
             1e-2,
             10_000.0,
         ),
+        # Sandwich-core properties: out of plane for honeycombs, equal to E and G for isotropic
+        # foams and end-grain wood; "n/a" for classes not made as cores (materials_db/SOURCES.md).
+        _p("E_core", "core modulus, out of plane", "GPa", "GPa", 1e9, "Msi", "Msi", 1e-5, 1200.0),
+        _p("G_core", "core shear modulus, transverse", "GPa", "GPa", 1e9, "Msi", "Msi", 1e-6, 600.0),
+        _p("tau_core", "core shear strength, transverse", "MPa", "MPa", 1e6, "ksi", "ksi", 1e-3, 10_000.0),
     )
 }
 """Every property, keyed by symbol, in the order of the data table."""

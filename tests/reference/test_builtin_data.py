@@ -399,7 +399,9 @@ def test_minimum_service_temperature_below_maximum(table):
 
 def test_poisson_ratio_between_zero_and_half(table):
     # 0 <= nu <= 0.5 for stable isotropic solids; cork is near zero, rubber near 0.5: common practice.
-    assert (table["nu_low"] >= 0).all() and (table["nu_high"] <= 0.5).all()
+    # Honeycombs hold n/a: their in-plane ratio is near 1, outside the isotropic bounds (Gibson & Ashby).
+    nu = table[["nu_low", "nu_high"]].dropna()
+    assert (nu["nu_low"] >= 0).all() and (nu["nu_high"] <= 0.5).all()
 
 
 def test_shear_modulus_consistent_with_isotropy(table):
