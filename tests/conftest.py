@@ -44,7 +44,7 @@ def make_table(rows: list[dict]) -> pd.DataFrame:
             "family": row.get("family", "metal"),
         }
         for symbol, prop in PROPERTIES.items():
-            lo, hi = row.get(symbol, defaults[symbol])
+            lo, hi = row.get(symbol, defaults.get(symbol, (float("nan"), float("nan"))))  # unknown
             rec[prop.low], rec[prop.high] = float(lo), float(hi)
         for rating in RATINGS:
             rec[rating] = row.get(rating, "good")

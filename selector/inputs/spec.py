@@ -84,6 +84,16 @@ class SectionSpec(_Strict):
         return {k: getattr(self, k) for k in DIMENSION_FIELDS if getattr(self, k) is not None}
 
 
+class SandwichSpec(_Strict):
+    """Which classes may be faces and cores (families or class ids) and the thickness bounds."""
+
+    faces: list[str] | None = None
+    cores: list[str] | None = None
+    min_face: str | None = None
+    min_core: str | None = None
+    max_depth: str | None = None
+
+
 class Objective(_Strict):
     minimize: Annotated[str, _one_of(OBJECTIVES, "an objective")] = "mass"
 
@@ -127,6 +137,7 @@ class Spec(_Strict):
     constraint: list[Constraint] = Field(default_factory=list)
     screen: dict[str, Any] = Field(default_factory=dict)
     materials: Materials = Field(default_factory=Materials)
+    sandwich: SandwichSpec | None = None
 
     @field_validator("units")
     @classmethod

@@ -24,7 +24,7 @@ from selector.mechanics import failure_modes as fm
 from selector.mechanics.monomial import Monomial as M
 from selector.suggest import did_you_mean
 
-FREE_VARIABLES = ("scale", "depth", "width", "thickness", "wall", "none")
+FREE_VARIABLES = ("scale", "depth", "width", "thickness", "wall", "none", "faces-and-core")
 
 FUNCTIONS = ("tie", "beam", "column", "shaft", "panel", "plate", "cylinder", "sphere", "spring")
 BEAM_SUPPORTS = ("cantilever", "simply-supported", "fixed-fixed")

@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 
 import numpy as np
 import pandas as pd
@@ -17,6 +17,13 @@ from selector.mechanics.objectives import OBJECTIVE_UNITS
 from selector.pipeline import failure_limits as fl
 from selector.pipeline.derive import Derivation, derive_for_case
 from selector.pipeline.rank import monomial_index, rank_by_index, rank_by_value, rerank_by_index
+from selector.pipeline.sandwich import (
+    SANDWICH_FREE,
+    SandwichResult,
+    best_solid,
+    sandwich_loads,
+    size_pairs,
+)
 from selector.pipeline.screen import (
     PARTLY,
     REJECTED,
@@ -78,6 +85,8 @@ class Selection:
     expression: str | None = None
     has_sizes: bool = False
     caution: str = CAUTION
+    sandwich: SandwichResult | None = None
+    """The ranked face × core pairs when the section is a sandwich; the table then holds solid parts."""
 
     @property
     def index_exponents(self) -> dict[str, float] | None:
@@ -299,6 +308,8 @@ def select(
         from selector.inputs.materials import load_materials
 
         materials = load_materials(spec.materials.files, builtin=spec.materials.builtin)
+    if spec.section.shape == "sandwich" or spec.section.free == SANDWICH_FREE or spec.sandwich is not None:
+        return _select_sandwich(spec, materials, conservative, index)
     expression = index if index is not None else spec.index
     if not spec.constraint and expression is None:
         raise InputError(
@@ -421,6 +432,44 @@ def select(
         expression,
         has_sizes=True,
     )
+
+
+def _select_sandwich(spec: Spec, materials: pd.DataFrame, conservative: bool, index: str | None) -> Selection:
+    """Face × core pairs for a sandwich spec, beside the best solid part sized for the same loads."""
+    from selector.inputs.spec import SectionSpec
+
+    fn, section = spec.part.function, spec.section
+    if fn not in ("beam", "panel"):
+        raise InputError("section.shape", f"a {fn} is not sized as a sandwich", "function = beam or panel")
+    if section.shape != "sandwich" or section.free != SANDWICH_FREE:
+        raise InputError(
+            "section",
+            f"shape = {section.shape!r} with free = {section.free!r}",
+            f'shape = "sandwich" and free = "{SANDWICH_FREE}" together (with an optional [sandwich] table)',
+        )
+    extra = sorted(set(section.dims) - {"b"})
+    if extra:
+        raise InputError(
+            f"section.{extra[0]}", "a sandwich's thicknesses are found, not given", "only the width b"
+        )
+    width = section.b if fn == "beam" else None
+    solid_section = SectionSpec(shape="rectangle", free="thickness" if fn == "panel" else "depth", b=width)
+    solid = select(
+        spec.model_copy(update={"section": solid_section, "sandwich": None}), materials, conservative, index
+    )
+    design = design_of(solid.spec, "rectangle")
+    values = dict(design.values) | ({"b": design.dims["b"]} if "b" in design.dims else {})
+    loads = sandwich_loads(spec, values, _limits(spec), conservative)
+    screens = parse_screens(spec.screen)
+    screened = qualifying_ranges(apply_screens(materials.reset_index(drop=True), screens), screens)
+    options = spec.sandwich
+    result = size_pairs(
+        screened, loads, options.faces if options else None, options.cores if options else None
+    )
+    result = replace(result, solid=best_solid(solid.shortlist, loads.max_depth))
+    sized = int(result.pairs["feasible"].sum())
+    note = f"sandwich: {sized} face × core pairs sized; the table holds the solid parts for comparison"
+    return replace(solid, spec=spec, sandwich=result, notes=(*solid.notes, note))
 
 
 __all__ = ["CAUTION", "DIMENSION_FIELDS", "PROPERTIES", "Selection", "design_of", "select"]
