@@ -441,11 +441,17 @@ def _select_sandwich(spec: Spec, materials: pd.DataFrame, conservative: bool, in
     fn, section = spec.part.function, spec.section
     if fn not in ("beam", "panel"):
         raise InputError("section.shape", f"a {fn} is not sized as a sandwich", "function = beam or panel")
-    if section.shape != "sandwich" or section.free != SANDWICH_FREE:
+    if section.shape != "sandwich":
         raise InputError(
-            "section",
-            f"shape = {section.shape!r} with free = {section.free!r}",
-            f'shape = "sandwich" and free = "{SANDWICH_FREE}" together (with an optional [sandwich] table)',
+            "section.shape",
+            f"free = {section.free!r} (or a [sandwich] table) sizes a sandwich, not a {section.shape!r}",
+            f'shape = "sandwich" with free = "{SANDWICH_FREE}"',
+        )
+    if section.free != SANDWICH_FREE:
+        raise InputError(
+            "section.free",
+            f"a sandwich is sized by both its thicknesses, not with free = {section.free!r}",
+            f'free = "{SANDWICH_FREE}"',
         )
     extra = sorted(set(section.dims) - {"b"})
     if extra:

@@ -112,8 +112,8 @@ def test_conservative_sizing_is_heavier():
 @pytest.mark.parametrize(
     ("changes", "where"),
     [
-        ({"section": {"shape": "sandwich", "free": "thickness"}}, "section"),
-        ({"section": {"shape": "rectangle", "free": "faces-and-core"}}, "section"),
+        ({"section": {"shape": "sandwich", "free": "thickness"}}, "section.free"),
+        ({"section": {"shape": "rectangle", "free": "faces-and-core"}}, "section.shape"),
         ({"section": {"shape": "sandwich", "free": "faces-and-core", "t": "5 mm"}}, "section.t"),
         ({"sandwich": {"faces": ["alumnium"]}}, "sandwich.faces[0]"),
         ({"sandwich": {"min_core": "-2 mm"}}, "sandwich.min_core"),
@@ -122,7 +122,7 @@ def test_conservative_sizing_is_heavier():
 def test_bad_sandwich_specs_name_the_field(changes, where):
     with pytest.raises(InputError) as info:
         select(spec_from_dict(_spec(**changes)))
-    assert str(info.value).startswith(f"error: {where}") or where in str(info.value)
+    assert str(info.value).startswith(f"{where}: ")
 
 
 def test_a_sandwich_needs_a_width():

@@ -124,7 +124,7 @@ def test_free_none_needs_dimensions():
             {},
             {"shape": "sandwich"},
             {"type": "strength"},
-            "section.shape: 'sandwich' sections are analysed by `selector section` but not sized",
+            "section.free: a sandwich is sized by both its thicknesses, not with free = 'scale'",
         ),
         (
             {},
