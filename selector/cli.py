@@ -239,6 +239,11 @@ def rank(
             )
         _emit(_studies(selection, other, exchange, draws, seed, distribution, fmt), output)
         return
+    if selection.sandwich is not None and fmt != "xlsx":
+        from selector.outputs.sandwich_tables import render_sandwich
+
+        _emit(render_sandwich(selection, fmt, units, top), output)
+        return
     if output and fmt == "xlsx":
         from selector.outputs.export import write_xlsx
 

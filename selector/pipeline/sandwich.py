@@ -49,9 +49,9 @@ MAX_FACE_SPAN_RATIO = 0.125
 SANDWICH_FREE = "faces-and-core"
 """The free variable of a sandwich: both thicknesses."""
 
-GRID_POINTS = 40
-BISECTIONS = 34
-GOLDEN_STEPS = 30
+GRID_POINTS = 32
+BISECTIONS = 30
+GOLDEN_STEPS = 22
 FEASIBLE_SLACK = 1e-6
 """Utilisation slack accepted after bisection (the thickness is rounded up to it)."""
 
@@ -207,9 +207,7 @@ def _usable(props: Mapping[str, np.ndarray]) -> np.ndarray:
 
 
 def _worst(case, loads, faces, cores, t_f, t_c) -> np.ndarray:
-    util = sw.utilisations(case, loads, faces, cores, t_f, t_c)
-    with np.errstate(invalid="ignore"):
-        return np.fmax.reduce(np.stack(list(util.values())), axis=0)
+    return sw.max_utilisation(case, loads, faces, cores, t_f, t_c)
 
 
 def least_face(case, loads, faces, cores, t_c, f_min, f_max) -> np.ndarray:
@@ -245,6 +243,7 @@ def optimise_pairs(
     """
     f = {k: np.asarray(v, dtype=float)[:, None] for k, v in faces.items()}
     c = {k: np.asarray(v, dtype=float)[:, None] for k, v in cores.items()}
+    f["limit"] = np.fmin(f["allow"], sw.wrinkling_stress(f["E"], c["E"], c["G"]))
     f_min = np.asarray(face_min, dtype=float)[:, None]
     c_min = np.asarray(core_min, dtype=float)[:, None]
     c_max = np.minimum(core_max, max_depth - 2 * f_min)

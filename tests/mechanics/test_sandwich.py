@@ -87,3 +87,18 @@ def test_thick_faces_are_flagged():
     assert sw.validity_warnings(5e-3, 10e-3)
     assert not sw.validity_warnings(0.5e-3, 20e-3)
     assert math.isclose(sw.THIN_FACE_RATIO, 5.77)
+
+
+def test_the_fast_maximum_equals_the_largest_utilisation():
+    rng = np.random.default_rng(3)
+    faces = {"E": rng.uniform(10e9, 200e9, 50), "allow": rng.uniform(50e6, 900e6, 50)}
+    cores = {
+        "E": rng.uniform(5e6, 2e9, 50),
+        "G": rng.uniform(2e6, 0.5e9, 50),
+        "tau": rng.uniform(0.05e6, 5e6, 50),
+    }
+    loads = {"F": 900.0, "L": 1.1, "b": 0.3, "delta": 4e-3, "SF": 1.7}
+    t_f, t_c = rng.uniform(0.2e-3, 5e-3, 50), rng.uniform(3e-3, 80e-3, 50)
+    util = sw.utilisations(CASE, loads, faces, cores, t_f, t_c)
+    expected = np.max(np.stack(list(util.values())), axis=0)
+    assert sw.max_utilisation(CASE, loads, faces, cores, t_f, t_c) == pytest.approx(expected, rel=1e-12)
