@@ -218,6 +218,13 @@ def rank(
     selection = run_spec(
         spec, files, no_builtin, conservative, expression, protect=[spec, *files], output=output
     )
+    if selection.sandwich is not None and output and str(output).lower().endswith(".html") and not fmt:
+        from selector.outputs.charts.sandwich import pairs_chart
+        from selector.outputs.charts.writing import write_chart
+
+        write_chart(pairs_chart(selection), output)
+        click.echo(f"wrote {output}", err=True)
+        return
     fmt = fmt or tables.format_for(output)
     units = units or selection.spec.units
     if exchange is not None and other is None:
