@@ -173,3 +173,16 @@ def test_rpm_counts_turns():
     f1 = math.pi / 2 * math.sqrt(70e9 * d**2 / 16 / 2700)  # √(EI/(ρA)) = d/4·√(E/ρ) for a round bar
     assert 25 / f1 == pytest.approx(row["utilisation"]["frequency"], rel=1e-9)
     assert np.isfinite(row["mass"])
+
+
+@pytest.mark.parametrize("example", ["greenhouse-tie-rod.toml", "enclosure-lid.toml"])
+def test_bundled_tie_and_lid_lead_with_a_tough_class_unless_brittle_is_allowed(example):
+    # Before the brittle rule a ceramic led both on strength and stiffness per kilogram.
+    from selector.inputs.spec import EXAMPLES, load_spec
+
+    spec = load_spec(EXAMPLES / example)
+    shortlist = select(spec).shortlist
+    assert shortlist["family"].iat[0] not in ("ceramic", "glass", "mineral")
+    assert (shortlist["K_IC_high"] >= 15).all()
+    opened = spec.model_copy(update={"screen": {**spec.screen, "allow_brittle": True}})
+    assert (select(opened).shortlist["K_IC_high"] < 15).any()  # brittle classes are back
