@@ -15,7 +15,7 @@ import numpy as np
 import pandas as pd
 
 from selector.errors import InputError
-from selector.inputs.properties import PROPERTIES, RATINGS
+from selector.inputs.properties import PROPERTIES, RATINGS, property_of
 from selector.inputs.units import format_number
 from selector.outputs.cells import csv_text, markdown_text
 
@@ -236,7 +236,7 @@ def index_unit(exponents: dict[str, float]) -> str:
     """Unit of an index computed in stored units, e.g. ``GPa^0.5/(kg/m³)``."""
     up, down = [], []
     for s, p in exponents.items():
-        label = PROPERTIES[s].label
+        label = property_of(s).label
         label = f"({label})" if ("/" in label or "·" in label or " " in label) else label
         part = label if abs(p) == 1 else f"{label}^{abs(p):.3g}"
         (up if p > 0 else down).append(part)

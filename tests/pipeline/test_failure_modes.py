@@ -186,3 +186,10 @@ def test_bundled_tie_and_lid_lead_with_a_tough_class_unless_brittle_is_allowed(e
     assert (shortlist["K_IC_high"] >= 15).all()
     opened = spec.model_copy(update={"screen": {**spec.screen, "allow_brittle": True}})
     assert (select(opened).shortlist["K_IC_high"] < 15).any()  # brittle classes are back
+
+
+def test_a_goodman_index_renders_in_every_table_format():
+    constraints = [{"type": "fatigue", "load_ratio": 0, "safety_factor": 2}]
+    sel = select(_spec("tie", constraints, force="5 kN"), make_table([ALUMINIUM]))
+    for fmt in ("table", "csv", "json", "md"):
+        assert "alu" in tables.render_selection(sel, fmt, "si", None, False)
