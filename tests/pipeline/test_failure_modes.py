@@ -183,7 +183,7 @@ def test_bundled_tie_and_lid_lead_with_a_tough_class_unless_brittle_is_allowed(e
     spec = load_spec(EXAMPLES / example)
     shortlist = select(spec).shortlist
     assert shortlist["family"].iat[0] not in ("ceramic", "glass", "mineral")
-    assert (shortlist["K_IC_high"] >= 15).all()
+    assert (shortlist["K_IC_high"].dropna() >= 15).all()  # classes without K_IC carry a note instead
     opened = spec.model_copy(update={"screen": {**spec.screen, "allow_brittle": True}})
     assert (select(opened).shortlist["K_IC_high"] < 15).any()  # brittle classes are back
 
