@@ -240,6 +240,9 @@ RATING_LEVELS: tuple[str, ...] = ("poor", "fair", "good", "excellent")
 NOT_APPLICABLE = "n/a"
 """Written in a data cell where a property truly does not apply to a class."""
 
+HIGH_IS_UNFAVOURABLE = frozenset({"rho", "price", "co2", "energy"})
+"""Properties whose high end is the unfavourable one when a part is sized (for the rest, the low end)."""
+
 TEXT_COLUMNS: tuple[str, ...] = ("id", "name", "family", "note", "source")
 
 

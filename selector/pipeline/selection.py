@@ -59,6 +59,11 @@ CAUTION = (
     "appropriate safety factors, and defer to local codes and licensed engineering review."
 )
 
+CONSERVATIVE_NOTE = (
+    "conservative: every part is sized and ranked at the unfavourable end of each range it uses "
+    "(low E, G, σ_y, σ_c; high ρ, price, CO2, energy)"
+)
+
 
 @dataclass(frozen=True)
 class Selection:
@@ -384,6 +389,8 @@ def select(
             "section: a generic solid square at fixed proportions (set [section] shape to size a real one)"
         )
     design = design_of(spec, shape)
+    if conservative:
+        design = replace(design, ends="unfavourable")
     missing = missing_inputs(derivations, design)
     if not missing and "L" in case.volume.symbols and "L" not in design.values:
         raise InputError(
@@ -397,6 +404,8 @@ def select(
         return Selection(
             spec, screens, tuple(derivations), table, "index", notes=tuple(notes), expression=expression
         )
+    if conservative:
+        notes.append(CONSERVATIVE_NOTE)
     alive = table["status"] != REJECTED
     sized = size_parts(table[alive], derivations, design)
     table = pd.concat([table, sized.reindex(table.index)], axis=1)
@@ -418,8 +427,7 @@ def select(
         table = rerank_by_index(table, conservative)
         ranked_by = "index"
     else:
-        key = "objective_high" if conservative else "objective"
-        table = rank_by_value(table, key, "objective_low", "objective_high")
+        table = rank_by_value(table, "objective", "objective_low", "objective_high")
         ranked_by = objective
     return Selection(
         spec,

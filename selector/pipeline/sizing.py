@@ -22,7 +22,7 @@ import numpy as np
 import pandas as pd
 
 from selector.errors import InputError
-from selector.inputs.properties import DERIVED_PROPERTIES, PROPERTIES, property_of
+from selector.inputs.properties import DERIVED_PROPERTIES, HIGH_IS_UNFAVOURABLE, PROPERTIES, property_of
 from selector.mechanics import sections as sec
 from selector.mechanics.objectives import OBJECTIVE_FACTORS
 from selector.pipeline.derive import Derivation
@@ -116,6 +116,7 @@ class Design:
     shape: str
     dims: dict[str, float]  # reference dimensions [m]
     free: str
+    ends: str = "typical"  # "typical" (geometric mean of each range) or "unfavourable" (--conservative)
 
 
 def missing_inputs(derivations: list[Derivation], design: Design) -> list[str]:
@@ -128,13 +129,24 @@ def missing_inputs(derivations: list[Derivation], design: Design) -> list[str]:
 
 
 def _si(table: pd.DataFrame, symbols: set[str], pick: str) -> dict[str, np.ndarray]:
+    """Property arrays in SI at the ``low``, ``high`` or ``mid`` (geometric mean) of each range,
+    or at the ``unfavourable`` end (low strength and stiffness; high ρ, price, CO2, energy)."""
     out = {}
     for s in symbols & MATERIAL_SYMBOLS:
         prop = property_of(s)
         lo = table[prop.low].to_numpy(dtype=float) * prop.si_factor
         hi = table[prop.high].to_numpy(dtype=float) * prop.si_factor
-        out[s] = {"low": lo, "high": hi, "mid": np.sqrt(lo * hi)}[pick]
+        worst = hi if s in HIGH_IS_UNFAVOURABLE else lo
+        out[s] = {"low": lo, "high": hi, "mid": np.sqrt(lo * hi), "unfavourable": worst}[pick]
     return out
+
+
+SIZING_PROPERTIES = ("E", "G", "sigma_y", "sigma_c", "rho", "price", "co2", "energy")
+"""Properties every sized part reads (stiffness, strength, mass and the objectives)."""
+
+
+def _sizing_ends(design: Design) -> str:
+    return "unfavourable" if design.ends == "unfavourable" else "mid"
 
 
 def _inputs(d: Derivation, design: Design, constants: Mapping[str, float]) -> dict[str, float]:
@@ -228,7 +240,7 @@ def _size_group(table: pd.DataFrame, derivations: list[Derivation], design: Desi
     """Size every row of ``table`` with one design (one section at given proportions)."""
     constants = design_constants(derivations, design)
     symbols = set().union(*(d.objective_value.symbols | d.solution.symbols for d in derivations))
-    mid = _si(table, symbols, "mid")
+    mid = _si(table, symbols | set(SIZING_PROPERTIES), _sizing_ends(design))
     x = _governing(
         [
             np.broadcast_to(d.solution.evaluate(mid | _inputs(d, design, constants)), len(table))
@@ -301,10 +313,6 @@ def _one_part(row, x, derivations, design, mid, i, constants) -> dict[str, objec
     fn = derivations[0].case.function
     case = derivations[0].case
     props = {k: v[i] for k, v in mid.items()}
-    for s in ("E", "G", "sigma_y", "sigma_c", "rho", "price", "co2"):
-        if s not in props:
-            prop = PROPERTIES[s]
-            props[s] = math.sqrt(row[prop.low] * row[prop.high]) * prop.si_factor
     warnings: list[str] = []
     if design.free != "none" and (not np.isfinite(x) or x <= 0):
         return {"feasible": False, "size_warnings": ["cannot be sized (missing property data)"]}
