@@ -48,6 +48,7 @@ def make_table(rows: list[dict]) -> pd.DataFrame:
             rec[prop.low], rec[prop.high] = float(lo), float(hi)
         for rating in RATINGS:
             rec[rating] = row.get(rating, "good")
+        rec["directions"] = row.get("directions", "all")
         rec["note"], rec["source"] = "", "test"
         records.append(rec)
     return pd.DataFrame(records, columns=data_columns())

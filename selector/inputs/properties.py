@@ -243,7 +243,7 @@ NOT_APPLICABLE = "n/a"
 HIGH_IS_UNFAVOURABLE = frozenset({"rho", "price", "co2", "energy"})
 """Properties whose high end is the unfavourable one when a part is sized (for the rest, the low end)."""
 
-TEXT_COLUMNS: tuple[str, ...] = ("id", "name", "family", "note", "source")
+TEXT_COLUMNS: tuple[str, ...] = ("id", "name", "family", "directions", "note", "source")
 
 
 def data_columns() -> list[str]:
@@ -251,7 +251,7 @@ def data_columns() -> list[str]:
     cols = ["id", "name", "family"]
     for prop in PROPERTIES.values():
         cols += [prop.low, prop.high]
-    return cols + list(RATINGS) + ["note", "source"]
+    return cols + list(RATINGS) + ["directions", "note", "source"]
 
 
 def get(symbol: str) -> Property:

@@ -64,6 +64,8 @@ class Part(_Strict):
     energy: str | None = None
     width: str | None = None
     radius: str | None = None
+    form: str | None = None  # springs: uniform, leaf, coil, torsion-bar
+    edges: str | None = None  # plates: supported, clamped, free-sides; panels: free-sides
 
 
 class SectionSpec(_Strict):

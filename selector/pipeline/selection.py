@@ -12,9 +12,11 @@ from selector.errors import InputError
 from selector.inputs.limits import check_range, check_safety_factor
 from selector.inputs.properties import PROPERTIES
 from selector.inputs.spec import DIMENSION_FIELDS, QUANTITY_FIELDS, Spec
-from selector.mechanics.loadcases import load_case, with_requirement
+from selector.mechanics.loadcases import with_requirement
 from selector.mechanics.objectives import OBJECTIVE_UNITS
+from selector.mechanics.stress_states import stress_state
 from selector.pipeline import failure_limits as fl
+from selector.pipeline.applicability import reject_for_stress_state
 from selector.pipeline.derive import Derivation, derive_for_case
 from selector.pipeline.rank import monomial_index, rank_by_index, rank_by_value, rerank_by_index
 from selector.pipeline.sandwich import (
@@ -35,6 +37,7 @@ from selector.pipeline.screen import (
     reject_brittle,
 )
 from selector.pipeline.sizing import DEFAULT_DIMS, Design, missing_inputs, size_parts
+from selector.pipeline.variants import IMPLICIT_CONSTRAINTS, case_for
 
 SYMBOL_OF_FIELD = {
     "length": "L",
@@ -207,6 +210,9 @@ def design_of(spec: Spec, shape: str) -> Design:
         for k, v in spec.section.dims.items()
     }
     limits = _limits(spec)
+    implicit, sf_from = IMPLICIT_CONSTRAINTS.get(spec.part.function, (None, None))
+    if implicit is not None:  # checked on every part, with the safety factor of ``sf_from``
+        limits[implicit] = {"SF": limits.get(sf_from, {}).get("SF", 1.0)}
     fn, free = spec.part.function, spec.section.free
     values |= fl.derived_geometry(fn, values)
     _check_section(fn, shape, free)
@@ -323,9 +329,7 @@ def select(
     for i, c in enumerate(spec.constraint):
         fl.failure_limits(c, f"constraint[{i}]", spec.part.function)  # refuse misplaced fields first
     criterion, load_ratio = fl.requirement_of(spec.constraint)
-    case = with_requirement(
-        load_case(spec.part.function, spec.part.support, spec.part.load), criterion, load_ratio
-    )
+    case = with_requirement(case_for(spec), criterion, load_ratio)
     free = spec.section.free
     # With every dimension fixed the part is only checked; the index shown is the one for
     # the first free variable the load case allows (the shape scaled at fixed proportions).
@@ -344,11 +348,15 @@ def select(
             f"{', '.join(d.constraint for d in derivations)} sets no size for this {case.function}",
             "a constraint that does, such as strength or stiffness",
         )
+    implicit, _ = IMPLICIT_CONSTRAINTS.get(case.function, (None, None))
+    if implicit is not None and derivations:
+        derivations.append(derive_for_case(case, implicit, spec.objective.minimize, derive_free))
     screens = parse_screens(spec.screen)
     screened = apply_screens(materials.reset_index(drop=True), screens)
     if brittle_rule_applies(case.function, tuple(c.type for c in spec.constraint), screens):
         screened = reject_brittle(screened)
     screened = qualifying_ranges(screened, screens)
+    screened = reject_for_stress_state(screened, stress_state(case.function, spec.part.form))
     if load_ratio != -1.0:
         screened = fl.with_fatigue_strength(screened, load_ratio)
     if derivations:
