@@ -79,6 +79,7 @@ class SectionSpec(_Strict):
     t: str | None = None
     tf: str | None = None
     tw: str | None = None
+    min_wall: str | None = None  # the thinnest wall or plate allowed (product forms set their own too)
 
     @property
     def dims(self) -> dict[str, str]:

@@ -210,6 +210,10 @@ def design_of(spec: Spec, shape: str) -> Design:
         for k, v in spec.section.dims.items()
     }
     limits = _limits(spec)
+    if spec.section.min_wall is not None:
+        text = spec.section.min_wall
+        where = "section.min_wall"
+        values["t_min"] = check_range(magnitude_in(text, "m", where), "m", where, text)
     implicit, sf_from = IMPLICIT_CONSTRAINTS.get(spec.part.function, (None, None))
     if implicit is not None:  # checked on every part, with the safety factor of ``sf_from``
         limits[implicit] = {"SF": limits.get(sf_from, {}).get("SF", 1.0)}

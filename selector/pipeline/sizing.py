@@ -25,6 +25,7 @@ from selector.errors import InputError
 from selector.inputs.properties import DERIVED_PROPERTIES, HIGH_IS_UNFAVOURABLE, PROPERTIES, property_of
 from selector.mechanics import sections as sec
 from selector.mechanics.objectives import OBJECTIVE_FACTORS
+from selector.mechanics.product_forms import minimum_walls
 from selector.pipeline.derive import Derivation
 
 MIN_PRACTICAL_WALL = 0.5e-3
@@ -247,7 +248,11 @@ def _size_group(table: pd.DataFrame, derivations: list[Derivation], design: Desi
             for d in derivations
         ]
     )
-    rows = [_one_part(table.iloc[i], x[i], derivations, design, mid, i, constants) for i in range(len(table))]
+    floors = np.maximum(minimum_walls(table).to_numpy(dtype=float), design.values.get("t_min", 0.0))
+    rows = [
+        _one_part(table.iloc[i], x[i], derivations, design, mid, i, constants, float(floors[i]))
+        for i in range(len(table))
+    ]
     frame = pd.DataFrame(rows, index=table.index).reindex(columns=SIZED_COLUMNS)
     objective = derivations[0].objective
     fn = derivations[0].case.function
@@ -267,6 +272,9 @@ def _size_group(table: pd.DataFrame, derivations: list[Derivation], design: Desi
             with np.errstate(divide="ignore", invalid="ignore"):
                 ends = ends * frame[objective].to_numpy(dtype=float) / closed
         frame[column] = ends
+    # A part held at its product form's minimum wall is heavier than the closed form says.
+    sized = frame[objective].to_numpy(dtype=float)
+    frame["objective_high"] = np.fmax(frame["objective_high"].to_numpy(dtype=float), sized)
     return frame
 
 
@@ -309,7 +317,16 @@ def _dims_for(design: Design, x: float, fn: str) -> dict[str, float]:
     return ref
 
 
-def _one_part(row, x, derivations, design, mid, i, constants) -> dict[str, object]:
+def _wall_key(design: Design, fn: str) -> str | None:
+    """The dimension held to the product form's minimum wall, when it is the free one."""
+    if design.free == "none":
+        return None
+    if fn in ("cylinder", "sphere", "plate"):
+        return "t"
+    return {"thickness": "h", "wall": "t"}.get(design.free)
+
+
+def _one_part(row, x, derivations, design, mid, i, constants, floor=0.0) -> dict[str, object]:
     fn = derivations[0].case.function
     case = derivations[0].case
     props = {k: v[i] for k, v in mid.items()}
@@ -327,6 +344,14 @@ def _one_part(row, x, derivations, design, mid, i, constants) -> dict[str, objec
                 "feasible": False,
                 "size_warnings": ["no valid section of this shape meets the constraints"],
             }
+    key = _wall_key(design, fn)
+    if key is not None and dims.get(key, math.inf) < floor:
+        warnings.append(
+            f"sized at the {floor * 1e3:.3g} mm minimum wall of its product form "
+            f"(needs {dims[key] * 1e3:.2g} mm): over-designed"
+        )
+        dims = dict(dims) | {key: floor}
+        geometry = _geometry_values(design, dims, fn)
     values = dict(design.values) | geometry | props
     util = {}
     for d in derivations:
