@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from pathlib import Path
+from typing import Any
 
 from selector.errors import OutputError
 from selector.inputs.spec import DEMO_SPEC, EXAMPLES
@@ -18,8 +19,12 @@ def run_spec(
     index: str | None = None,
     protect: Sequence[str | Path] = (),
     output: str | Path | None = None,
+    **studies: Any,
 ):
-    """Load a spec and its materials, run the pipeline, return the Selection."""
+    """Load a spec and its materials, run the pipeline, return the Selection.
+
+    ``studies`` are passed to ``select`` (robust, tradeoff, exchange, seed, distribution, sensitivity).
+    """
     from selector.inputs.materials import load_materials
     from selector.inputs.spec import load_spec
     from selector.pipeline.selection import select
@@ -30,7 +35,7 @@ def run_spec(
     check_output(output, spec_files)
     builtin = spec.materials.builtin and not no_builtin
     table = load_materials([*spec_files, *files], builtin=builtin)
-    return select(spec, table, conservative=conservative, index=index)
+    return select(spec, table, conservative=conservative, index=index, **studies)
 
 
 def run_demo(out_dir: Path, robust_draws: int | None = None):
@@ -43,9 +48,11 @@ def run_demo(out_dir: Path, robust_draws: int | None = None):
     from selector.outputs.charts import chart_for_selection, write_chart
     from selector.outputs.export import write_text_atomic
     from selector.outputs.report import DEFAULT_REPORT_DRAWS, write_report
+    from selector.pipeline.selection import report_studies
 
     spec_path = EXAMPLES / DEMO_SPEC
-    selection = run_spec(spec_path)
+    draws = DEFAULT_REPORT_DRAWS if robust_draws is None else robust_draws
+    selection = report_studies(run_spec(spec_path), draws)
     try:
         out_dir.mkdir(parents=True, exist_ok=True)
     except OSError as exc:
@@ -58,9 +65,8 @@ def run_demo(out_dir: Path, robust_draws: int | None = None):
     write_chart(chart_for_selection(selection), chart_path)
     written.append(chart_path)
     report_path = out_dir / "report.html"
-    draws = DEFAULT_REPORT_DRAWS if robust_draws is None else robust_draws
     spec_text = spec_path.read_text(encoding="utf-8")
-    write_report(selection, report_path, spec_text, spec_path.name, robust_draws=draws, protect=[spec_path])
+    write_report(selection, report_path, spec_text, spec_path.name, protect=[spec_path])
     written.append(report_path)
     return selection, written
 
@@ -77,6 +83,7 @@ def report_from_spec(
     """Run a spec file and write its report to ``output`` (checked before any work is done)."""
     from selector.outputs.files import ensure_folder
     from selector.outputs.report import DEFAULT_REPORT_DRAWS, check_report_path, write_report
+    from selector.pipeline.selection import report_studies
 
     draws = DEFAULT_REPORT_DRAWS if robust_draws is None else robust_draws
 
@@ -85,6 +92,7 @@ def report_from_spec(
     target = check_report_path(output)
     ensure_folder(target)
     selection = run_spec(spec_path, files, no_builtin, protect=protect, output=target)
+    selection = report_studies(selection, draws, seed)
     protect += list(selection.spec.materials.files)
     text = Path(spec_path).read_text(encoding="utf-8")
-    return write_report(selection, target, text, Path(spec_path).name, units, draws, seed, protect)
+    return write_report(selection, target, text, Path(spec_path).name, units, protect)

@@ -216,7 +216,19 @@ def rank(
     from selector.outputs import tables
 
     selection = run_spec(
-        spec, files, no_builtin, conservative, expression, protect=[spec, *files], output=output
+        spec,
+        files,
+        no_builtin,
+        conservative,
+        expression,
+        protect=[spec, *files],
+        output=output,
+        robust=draws,
+        tradeoff=None if exchange is not None and other is None else other,
+        exchange=exchange,
+        seed=seed,
+        distribution=distribution,
+        sensitivity=True,
     )
     if selection.sandwich is not None and output and str(output).lower().endswith(".html") and not fmt:
         from selector.outputs.charts.sandwich import pairs_chart
@@ -244,7 +256,7 @@ def rank(
             raise InputError(
                 "--format csv", "one CSV holds one table", "--tradeoff and --robust in separate runs"
             )
-        _emit(_studies(selection, other, exchange, draws, seed, distribution, fmt), output)
+        _emit(_studies(selection, fmt), output)
         return
     if selection.sandwich is not None and fmt != "xlsx":
         from selector.outputs.sandwich_tables import render_sandwich
@@ -260,26 +272,29 @@ def rank(
     _emit(tables.render_selection(selection, fmt, units, top, show_all), output)
 
 
-def _studies(selection, other, exchange, draws, seed, distribution, fmt) -> str:
-    """Text of the trade-off and robustness studies asked for on `rank` (JSON: one object)."""
+def _studies(selection, fmt) -> str:
+    """Text of the trade-off and robustness studies the Selection carries (JSON: one object)."""
     import json
 
+    from selector.outputs.studies import render_robustness, render_tradeoff
+
     parts = []
-    if other is not None:
-        from selector.outputs.studies import render_tradeoff
-        from selector.pipeline.tradeoff import tradeoff_report
-
-        front, second = tradeoff_report(selection, other, exchange)
-        parts.append(render_tradeoff(front, second, fmt if fmt != "xlsx" else "table", exchange))
-    if draws is not None:
-        from selector.outputs.studies import render_robustness
-        from selector.pipeline.robust import robustness, sensitivity
-
-        result = robustness(selection, draws=draws, seed=seed, distribution=distribution)
-        effects = sensitivity(selection, seed=seed, distribution=distribution)
-        parts.append(render_robustness(result, fmt if fmt != "xlsx" else "table", effects))
+    if selection.tradeoff_error is not None:
+        raise selection.tradeoff_error
+    if selection.tradeoff is not None:
+        study = selection.tradeoff
+        parts.append(
+            render_tradeoff(study.front, study.second, fmt if fmt != "xlsx" else "table", study.exchange)
+        )
+    if selection.robust_error is not None:
+        raise selection.robust_error
+    if selection.robust is not None:
+        parts.append(
+            render_robustness(selection.robust, fmt if fmt != "xlsx" else "table", selection.sensitivity)
+        )
     if fmt == "json":
-        names = [n for n, asked in (("tradeoff", other), ("robustness", draws)) if asked is not None]
+        asked = (("tradeoff", selection.tradeoff), ("robustness", selection.robust))
+        names = [n for n, study in asked if study is not None]
         merged = {name: json.loads(part) for name, part in zip(names, parts, strict=True)}
         return json.dumps(merged | {"caution": selection.caution}, indent=2)
     if fmt in (None, "table", "md"):

@@ -126,3 +126,64 @@ def test_imports_point_down_the_pipeline():
 def test_nothing_imports_the_cli():
     users = [src for src, targets in import_graph().items() if "selector.cli" in targets]
     assert users == ["selector.__main__"]
+
+
+# The steps whose functions compute engineering; outputs read their results instead.
+COMPUTING_MODULES = (
+    "selector.pipeline.screen",
+    "selector.pipeline.derive",
+    "selector.pipeline.sizing",
+    "selector.pipeline.rank",
+    "selector.pipeline.tradeoff",
+    "selector.pipeline.robust",
+    "selector.pipeline.selection",
+)
+# Functions of those modules an output may still call, and why.
+ALLOWED_CALLS = {
+    # the explorer reruns the whole pipeline for a changed spec, exactly as `selector rank` does
+    ("selector.pipeline.selection", "select"),
+    # reading a screen the user typed (text to a Limit in stored units), to move its slider
+    ("selector.pipeline.screen", "parse_limit"),
+}
+
+
+def output_imports_of_computing_names() -> list[tuple[str, str, str]]:
+    """(output module, computing module, name) for every such import in selector/outputs."""
+    found = []
+    for path in sorted((PACKAGE / "outputs").rglob("*.py")):
+        for node in ast.walk(ast.parse(path.read_text(encoding="utf-8"))):
+            if isinstance(node, ast.Import):
+                found += [(module_name(path), a.name, "*") for a in node.names if a.name in COMPUTING_MODULES]
+            elif isinstance(node, ast.ImportFrom) and node.level == 0:
+                for alias in node.names:
+                    if node.module in COMPUTING_MODULES:
+                        found.append((module_name(path), node.module, alias.name))
+                    elif f"{node.module}.{alias.name}" in COMPUTING_MODULES:
+                        found.append((module_name(path), f"{node.module}.{alias.name}", "*"))
+    return found
+
+
+def test_outputs_import_no_computing_function():
+    """No module under selector/outputs imports a function of a computing step.
+
+    The rule: for every import in selector/outputs (at any depth, TYPE_CHECKING blocks
+    included) of a name from selector.pipeline.screen, derive, sizing, rank, tradeoff,
+    robust or selection, the imported object must be a class (a dataclass result type such
+    as RobustResult or Limit) or a value that is not callable (a constant such as REJECTED
+    or SIZED_OBJECTIVES); importing one of those modules whole is not allowed. The only
+    functions allowed are those in ALLOWED_CALLS, each with its reason.
+    """
+    import importlib
+    import inspect
+
+    found = output_imports_of_computing_names()
+    assert any(name == "RobustResult" for _, _, name in found), "the scan sees the studies' imports"
+    bad = []
+    for src, module, name in found:
+        if name == "*":
+            bad.append(f"{src} imports the module {module}")
+            continue
+        value = getattr(importlib.import_module(module), name)
+        if callable(value) and not inspect.isclass(value) and (module, name) not in ALLOWED_CALLS:
+            bad.append(f"{src} imports the function {module}.{name}")
+    assert not bad, "\n".join(bad)

@@ -237,20 +237,17 @@ def _screens_view(selection: Any) -> dict[str, Any]:
     }
 
 
-def _robust_view(selection: Any, draws: int, seed: int | None) -> dict[str, Any] | None:
-    """The odds table, or a note saying why there is none; None when skipped."""
-    if draws <= 0:
+def _robust_view(selection: Any) -> dict[str, Any] | None:
+    """The odds table the Selection carries, or a note saying why there is none; None when not asked."""
+    if selection.robust is None and selection.robust_error is None:
         return None
     if selection.shortlist.empty:
         return {"note": "no ranked candidates, so there are no odds to estimate"}
     if not selection.derivations or (selection.expression is not None and not selection.sized):
         return {"note": "the ranking uses a typed index; the robustness figures cover derived indices only"}
-    from selector.pipeline.robust import robustness
-
-    try:
-        result = robustness(selection, draws=draws, seed=seed)
-    except SelectorError as exc:
-        return {"note": f"the robustness figures could not be computed: {exc}"}
+    if selection.robust_error is not None:
+        return {"note": f"the robustness figures could not be computed: {selection.robust_error}"}
+    result = selection.robust
     table = result.table.head(ROBUST_ROWS)
     rows = [
         {
@@ -286,14 +283,13 @@ def _tradeoff_view(selection: Any) -> dict[str, Any]:
     """The Pareto front of the ranked objective against a second one, with its chart."""
     if not selection.has_sizes:
         return {"note": "parts are not sized (the spec gives no loads), so there is no trade-off to draw"}
-    from selector.pipeline.tradeoff import tradeoff_report
-
+    if selection.tradeoff_error is not None:
+        return {"note": f"no trade-off: {selection.tradeoff_error}"}
+    if selection.tradeoff is None:
+        return {"note": "no trade-off study was asked for"}
     first = selection.spec.objective.minimize
-    other = "cost" if first != "cost" else "mass"
-    try:
-        front, ranges = tradeoff_report(selection, other=other)
-    except SelectorError as exc:
-        return {"note": f"no trade-off: {exc}"}
+    other = selection.tradeoff.other
+    front, ranges = selection.tradeoff.front, selection.tradeoff.second
     units = {"mass": "kg", "cost": "USD", "co2": "kg CO2e", "volume": "m³"}
     rows = []
     by_id = ranges.set_index("id") if "id" in ranges else None
@@ -426,8 +422,6 @@ def report_context(
     spec_text: str | None = None,
     spec_name: str | None = None,
     units: str | None = None,
-    robust_draws: int = DEFAULT_REPORT_DRAWS,
-    seed: int | None = None,
     generated: _dt.date | None = None,
 ) -> dict[str, Any]:
     """Everything the template shows, as plain values (strings, lists, figures)."""
@@ -467,7 +461,7 @@ def report_context(
         "size_warnings": size_warnings,
         "charts": charts,
         "tradeoff": trade,
-        "robust": _robust_view(selection, robust_draws, seed),
+        "robust": _robust_view(selection),
         "provenance": provenance(selection.table),
         "source_html": _source_html,
     }
@@ -498,22 +492,19 @@ def build_report(
     spec_text: str | None = None,
     spec_name: str | None = None,
     units: str | None = None,
-    robust_draws: int = DEFAULT_REPORT_DRAWS,
-    seed: int | None = None,
     generated: _dt.date | None = None,
 ) -> str:
     """The report as one HTML document (plotly.js inlined once).
 
     Args:
-        selection: the result of ``select``.
+        selection: the result of ``select``; its robustness and trade-off studies are shown
+            (``select(..., robust=DEFAULT_REPORT_DRAWS, tradeoff=SECOND_OBJECTIVE[objective])``).
         spec_text: the spec as written (TOML); without it the validated spec is shown as JSON.
         spec_name: the spec's file name, shown above its text.
         units: "si" or "us" for the tables (the spec's units by default).
-        robust_draws: Monte Carlo draws for the robustness figures; 0 leaves them out.
-        seed: random seed of the draws (the robustness default when None).
         generated: the date printed on the report (today by default).
     """
-    context = report_context(selection, spec_text, spec_name, units, robust_draws, seed, generated)
+    context = report_context(selection, spec_text, spec_name, units, generated)
     from markupsafe import Markup
 
     context["plotly_js"] = Markup(_plotly_js())
@@ -538,8 +529,6 @@ def write_report(
     spec_text: str | None = None,
     spec_name: str | None = None,
     units: str | None = None,
-    robust_draws: int = DEFAULT_REPORT_DRAWS,
-    seed: int | None = None,
     protect: Sequence[str | Path] = (),
 ) -> Path:
     """Build the report and write it atomically; refuses to write over any path in ``protect``."""
@@ -548,7 +537,7 @@ def write_report(
     check_output(path, protect)
     target = check_report_path(path)
     ensure_folder(target)
-    write_text_atomic(target, build_report(selection, spec_text, spec_name, units, robust_draws, seed))
+    write_text_atomic(target, build_report(selection, spec_text, spec_name, units))
     return target
 
 

@@ -175,9 +175,7 @@ def _model(selection) -> tuple[pd.DataFrame, tuple[str, ...], KeyFunction]:
     """Ranked candidates, the properties the ranking uses and a key (lower = better) of stored-unit values."""
     cand = selection.shortlist.reset_index(drop=True)
     if not selection.sized and selection.expression is not None:
-        from selector.inputs.expressions import parse
-
-        expr = parse(selection.expression)
+        expr = selection.parsed_index
 
         def expression_key(values: Mapping[str, np.ndarray]) -> np.ndarray:
             return -np.asarray(expr.evaluate(values))
@@ -196,11 +194,10 @@ def _model(selection) -> tuple[pd.DataFrame, tuple[str, ...], KeyFunction]:
 
         return cand, symbols, index_key
 
-    from selector.pipeline.selection import design_of
     from selector.pipeline.sizing import objective_samples
 
     derivations = list(selection.derivations)
-    design = design_of(selection.spec, selection.spec.section.shape)
+    design = selection.design
     if design.free == "none":
         # A given part: only the material factor of the objective varies (feasibility is not re-drawn).
         from selector.mechanics.objectives import OBJECTIVE_FACTORS

@@ -8,7 +8,8 @@ from dataclasses import dataclass, field, replace
 import numpy as np
 import pandas as pd
 
-from selector.errors import InputError
+from selector.errors import InputError, SelectorError
+from selector.inputs.expressions import Expression, parse
 from selector.inputs.limits import check_range, check_safety_factor
 from selector.inputs.properties import PROPERTIES
 from selector.inputs.spec import DIMENSION_FIELDS, QUANTITY_FIELDS, Spec
@@ -19,6 +20,8 @@ from selector.pipeline import failure_limits as fl
 from selector.pipeline.applicability import reject_for_stress_state
 from selector.pipeline.derive import Derivation, derive_for_case
 from selector.pipeline.rank import monomial_index, rank_by_index, rank_by_value, rerank_by_index
+from selector.pipeline.robust import RobustResult, robustness
+from selector.pipeline.robust import sensitivity as robust_sensitivity
 from selector.pipeline.sandwich import (
     SANDWICH_FREE,
     SandwichResult,
@@ -37,6 +40,7 @@ from selector.pipeline.screen import (
     reject_brittle,
 )
 from selector.pipeline.sizing import DEFAULT_DIMS, Design, missing_inputs, size_parts
+from selector.pipeline.tradeoff import SECOND_OBJECTIVE, TradeoffStudy, tradeoff_report
 from selector.pipeline.variants import IMPLICIT_CONSTRAINTS, case_for
 
 SYMBOL_OF_FIELD = {
@@ -81,6 +85,16 @@ class Selection:
         has_sizes: the table holds sized parts (the spec gave loads), whatever ranks them.
         objective_unit: unit of the objective columns when sized.
         notes: assumptions and warnings worth showing.
+        expression: the typed ranking index as written (None: the derived index ranks).
+        design: the design quantities in SI (loads, lengths, limits, section) when the spec
+            gives enough of them to size parts, else None.
+        parsed_index: ``expression`` parsed (None without a typed index).
+        ranking_key: the column the shortlist is ordered by (``index``, ``index_low``,
+            ``objective`` or ``objective_high``).
+        tradeoff: the trade-off study asked for with ``select(..., tradeoff=...)``.
+        robust: the Monte Carlo odds asked for with ``select(..., robust=draws)``.
+        sensitivity: which property's scatter unsettles the leader (with ``sensitivity=True``).
+        tradeoff_error, robust_error: why a study that was asked for could not be made.
     """
 
     spec: Spec
@@ -95,15 +109,21 @@ class Selection:
     caution: str = CAUTION
     sandwich: SandwichResult | None = None
     """The ranked face × core pairs when the section is a sandwich; the table then holds solid parts."""
+    design: Design | None = None
+    parsed_index: Expression | None = field(default=None, compare=False)
+    ranking_key: str = "index"
+    tradeoff: TradeoffStudy | None = None
+    robust: RobustResult | None = None
+    sensitivity: pd.DataFrame | None = field(default=None, compare=False)
+    tradeoff_error: SelectorError | None = None
+    robust_error: SelectorError | None = None
 
     @property
     def index_exponents(self) -> dict[str, float] | None:
         """The ranking index as {symbol: exponent}, or None for a typed index that is no monomial."""
         if self.expression is None:
             return self.derivations[0].exponents
-        from selector.inputs.expressions import parse
-
-        mono = parse(self.expression).monomial()
+        mono = (self.parsed_index or parse(self.expression)).monomial()
         return None if mono is None else mono[1]
 
     @property
@@ -313,12 +333,66 @@ def expression_index(
 
 
 def select(
-    spec: Spec, materials: pd.DataFrame | None = None, conservative: bool = False, index: str | None = None
+    spec: Spec,
+    materials: pd.DataFrame | None = None,
+    conservative: bool = False,
+    index: str | None = None,
+    *,
+    robust: int | None = None,
+    tradeoff: str | None = None,
+    exchange: float | str | None = None,
+    seed: int | None = None,
+    distribution: str = "log-uniform",
+    sensitivity: bool = False,
 ) -> Selection:
     """Run the whole pipeline for a spec over a materials table (the built-in one by default).
 
     ``index`` (or the spec's ``index``) replaces the derived merit index for ranking by index.
+    With ``robust`` (a number of draws) the Selection carries the Monte Carlo odds (and with
+    ``sensitivity`` which property unsettles the leader), drawn with ``seed`` and
+    ``distribution``; with ``tradeoff`` (a second objective) the Pareto front against it and,
+    with ``exchange``, the penalty ranking. A study that cannot be made leaves its error in
+    ``robust_error`` or ``tradeoff_error`` (see ``studies``).
     """
+    selection = _select(spec, materials, conservative, index)
+    return studies(selection, robust, tradeoff, exchange, seed, distribution, sensitivity)
+
+
+def studies(
+    selection: Selection,
+    robust: int | None = None,
+    tradeoff: str | None = None,
+    exchange: float | str | None = None,
+    seed: int | None = None,
+    distribution: str = "log-uniform",
+    sensitivity: bool = False,
+) -> Selection:
+    """The Selection with the trade-off and robustness studies asked for (None: not asked)."""
+    found: dict[str, object] = {}
+    if tradeoff is not None:
+        try:
+            front, second = tradeoff_report(selection, tradeoff, exchange)
+            found["tradeoff"] = TradeoffStudy(tradeoff, exchange, front, second)
+        except SelectorError as exc:
+            found["tradeoff_error"] = exc
+    if robust is not None:
+        try:
+            found["robust"] = robustness(selection, draws=robust, seed=seed, distribution=distribution)
+            if sensitivity:
+                found["sensitivity"] = robust_sensitivity(selection, seed=seed, distribution=distribution)
+        except SelectorError as exc:
+            found["robust_error"] = exc
+    return replace(selection, **found) if found else selection
+
+
+def report_studies(selection: Selection, draws: int, seed: int | None = None) -> Selection:
+    """The Selection with the studies a report shows: the usual trade-off (when parts are sized)
+    and ``draws`` Monte Carlo draws (none for 0)."""
+    second = SECOND_OBJECTIVE.get(selection.spec.objective.minimize) if selection.has_sizes else None
+    return studies(selection, robust=draws or None, tradeoff=second, seed=seed)
+
+
+def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, index: str | None) -> Selection:
     if materials is None:
         from selector.inputs.materials import load_materials
 
@@ -326,6 +400,8 @@ def select(
     if spec.section.shape == "sandwich" or spec.section.free == SANDWICH_FREE or spec.sandwich is not None:
         return _select_sandwich(spec, materials, conservative, index)
     expression = index if index is not None else spec.index
+    parsed = None
+    index_key = "index_low" if conservative else "index"
     if not spec.constraint and expression is None:
         raise InputError(
             "spec: constraint", "the spec has no [[constraint]] and no index", "at least one constraint table"
@@ -370,10 +446,21 @@ def select(
         screened = fl.reject_missing(screened, needs)  # the index ranking reports its own gaps
     if expression is not None:
         low, high, typ, needs = expression_index(screened, expression)
+        parsed = parse(expression)
         table = rank_by_index(screened, low, high, typ, conservative, needs=needs)
         if not derivations:
             notes = [f"ranked by the typed index {expression}"]
-            return Selection(spec, screens, (), table, "index", notes=tuple(notes), expression=expression)
+            return Selection(
+                spec,
+                screens,
+                (),
+                table,
+                "index",
+                notes=tuple(notes),
+                expression=expression,
+                parsed_index=parsed,
+                ranking_key=index_key,
+            )
     first = derivations[0]
     if expression is None:
         low, high, typ = monomial_index(screened, first.exponents)
@@ -414,7 +501,15 @@ def select(
         names = ", ".join(FIELD_OF_SYMBOL.get(s, s) for s in missing)
         notes.append(f"ranked by merit index; to size parts the spec also needs: {names}")
         return Selection(
-            spec, screens, tuple(derivations), table, "index", notes=tuple(notes), expression=expression
+            spec,
+            screens,
+            tuple(derivations),
+            table,
+            "index",
+            notes=tuple(notes),
+            expression=expression,
+            parsed_index=parsed,
+            ranking_key=index_key,
         )
     if conservative:
         notes.append(CONSERVATIVE_NOTE)
@@ -437,7 +532,7 @@ def select(
     if expression is not None:
         notes.append(f"ranked by the typed index {expression}; the parts are sized for the spec's loads")
         table = rerank_by_index(table, conservative)
-        ranked_by = "index"
+        ranked_by, key = "index", index_key
     else:
         table = rank_by_value(table, "objective", "objective_low", "objective_high")
         ranked_by = objective
@@ -451,6 +546,9 @@ def select(
         tuple(notes),
         expression,
         has_sizes=True,
+        design=design,
+        parsed_index=parsed,
+        ranking_key=key,
     )
 
 
@@ -498,4 +596,13 @@ def _select_sandwich(spec: Spec, materials: pd.DataFrame, conservative: bool, in
     return replace(solid, spec=spec, sandwich=result, notes=(*solid.notes, note))
 
 
-__all__ = ["CAUTION", "DIMENSION_FIELDS", "PROPERTIES", "Selection", "design_of", "select"]
+__all__ = [
+    "CAUTION",
+    "DIMENSION_FIELDS",
+    "PROPERTIES",
+    "Selection",
+    "design_of",
+    "report_studies",
+    "select",
+    "studies",
+]

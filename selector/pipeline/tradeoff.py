@@ -15,6 +15,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Mapping, Sequence
+from dataclasses import dataclass, field
 from itertools import pairwise
 from typing import Any
 
@@ -26,6 +27,8 @@ from selector.suggest import did_you_mean
 
 SIZED_OBJECTIVES: dict[str, str] = {"mass": "kg", "cost": "USD", "co2": "kg CO2e", "volume": "m³"}
 """Objective column → unit, for the columns a sized selection carries."""
+SECOND_OBJECTIVE: dict[str, str] = {o: "cost" if o != "cost" else "mass" for o in SIZED_OBJECTIVES}
+"""The usual objective to trade each ranked objective against (the report's trade-off)."""
 EXCHANGE_UNITS: dict[str, str] = {"mass": "USD/kg", "co2": "USD/kg", "volume": "USD/m^3"}
 """Unit an exchange constant is read in, per objective it prices (CO2 per kg CO2e)."""
 EXCHANGE_LABELS: dict[str, str] = {"mass": "USD/kg", "co2": "USD/kg CO2e", "volume": "USD/m³"}
@@ -326,6 +329,23 @@ def exchange_ranges(source: Any, x: str = "mass", y: str = "cost") -> pd.DataFra
     return out
 
 
+@dataclass(frozen=True)
+class TradeoffStudy:
+    """A trade-off of the ranked objective against a second one (``tradeoff_report``'s result).
+
+    Attributes:
+        other: the second objective.
+        exchange: the exchange constant given, or None.
+        front: the Pareto-front members.
+        second: the penalty ranking (with ``exchange``) or each front member's exchange-constant range.
+    """
+
+    other: str
+    exchange: float | str | None
+    front: pd.DataFrame = field(compare=False)
+    second: pd.DataFrame = field(compare=False)
+
+
 def tradeoff_report(
     selection: Any, other: str = "cost", exchange: float | str | None = None
 ) -> tuple[pd.DataFrame, pd.DataFrame]:
@@ -381,7 +401,9 @@ def tradeoff_report(
 
 __all__ = [
     "EXCHANGE_UNITS",
+    "SECOND_OBJECTIVE",
     "SIZED_OBJECTIVES",
+    "TradeoffStudy",
     "exchange_ranges",
     "pareto_front",
     "pareto_table",

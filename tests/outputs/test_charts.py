@@ -31,7 +31,7 @@ from selector.outputs.charts import (
     tradeoff_chart,
     write_chart,
 )
-from selector.pipeline.screen import parse_screens
+from selector.pipeline.screen import apply_screens, parse_screens
 from selector.pipeline.selection import select
 from tests.conftest import make_table
 
@@ -228,7 +228,7 @@ def test_okabe_ito_colours_in_family_order():
 
 def test_markers_coloured_by_family_and_rejected_in_grey():
     screens = parse_screens({"E": ">= 5 GPa"})
-    fig = property_chart(classes(), "rho", "E", screens=screens)
+    fig = property_chart(apply_screens(classes(), screens), "rho", "E", screens=screens)
     seen = {}
     for trace in role(fig, "markers"):
         family = trace.meta["family"]
@@ -369,7 +369,7 @@ def test_bad_axes_and_units_are_clear_errors():
 )
 def test_pass_region_bounds_equal_the_screens(units, x_bound, y_bound):
     screens = parse_screens({"T_max": ">= 150 degC", "sigma_y": ">= 100 MPa", "price": "<= 30 USD/kg"})
-    fig = property_chart(classes(), "T_max", "sigma_y", screens=screens, units=units)
+    fig = property_chart(apply_screens(classes(), screens), "T_max", "sigma_y", screens=screens, units=units)
     (region,) = role(fig, "pass-region")
     assert min(region.x) == pytest.approx(x_bound)
     assert min(region.y) == pytest.approx(y_bound)
@@ -434,7 +434,7 @@ def test_user_text_is_escaped_in_hover_labels_and_title():
 
 def test_hover_shows_name_family_ranges_status_and_reasons():
     screens = parse_screens({"E": ">= 5 GPa"})
-    fig = property_chart(classes(), "rho", "E", screens=screens)
+    fig = property_chart(apply_screens(classes(), screens), "rho", "E", screens=screens)
     text = {cid: h for t in role(fig, "markers") for cid, h in zip(t.meta["ids"], t.text, strict=True)}
     assert "Light alloy" in text["alu"] and "metal" in text["alu"]
     assert "2600–2800 kg/m³" in text["alu"] and "68–72 GPa" in text["alu"]

@@ -16,6 +16,7 @@ from selector.cli import cli
 from selector.errors import InputError, OutputError
 from selector.inputs.units import format_number
 from selector.outputs import report
+from selector.pipeline.selection import report_studies
 
 EXAMPLES = Path(__file__).parents[2] / "examples"
 SPEC = EXAMPLES / "camera-dolly-boom.toml"
@@ -109,7 +110,7 @@ def selection():
 @pytest.fixture(scope="module")
 def html(selection):
     return report.build_report(
-        selection, SPEC.read_text(encoding="utf-8"), SPEC.name, robust_draws=400, seed=7
+        report_studies(selection, 400, seed=7), SPEC.read_text(encoding="utf-8"), SPEC.name
     )
 
 
@@ -187,7 +188,7 @@ def test_shortlist_table_has_sizes_utilisations_and_governing(page, selection):
 
 
 def test_us_units_relabel_the_shortlist(selection):
-    page = parse(report.build_report(selection, units="us", robust_draws=0))
+    page = parse(report.build_report(report_studies(selection, 0), units="us"))
     header = page.tables["shortlist"][0]
     assert "Mass lb" in header and "Size in" in header
 
@@ -207,7 +208,7 @@ def test_robustness_figures_match_the_robust_module(page, selection):
 
 
 def test_robustness_can_be_left_out(selection):
-    page = parse(report.build_report(selection, robust_draws=0))
+    page = parse(report.build_report(report_studies(selection, 0)))
     assert "Not computed" in page.text("robustness")
 
 
@@ -276,7 +277,7 @@ def _hostile_selection():
 
 def test_user_text_is_escaped_everywhere():
     selection = _hostile_selection()
-    html = report.build_report(selection, f'title = "{XSS}"\n', f"spec{XSS}.toml", robust_draws=50)
+    html = report.build_report(report_studies(selection, 50), f'title = "{XSS}"\n', f"spec{XSS}.toml")
     assert XSS not in html
     assert "<img src=x" not in html
     assert "&lt;script&gt;alert(1)&lt;/script&gt;" in html
@@ -297,7 +298,7 @@ def test_write_is_atomic_and_keeps_the_old_report(selection, tmp_path, monkeypat
 
     monkeypatch.setattr(os, "replace", fail)
     with pytest.raises(OutputError, match="cannot be written"):
-        report.write_report(selection, path, robust_draws=0)
+        report.write_report(selection, path)
     assert path.read_bytes() == b"<p>old report</p>"
     assert [p.name for p in tmp_path.iterdir()] == ["report.html"]
 

@@ -8,6 +8,7 @@ import pytest
 
 from selector.api import run_spec
 from selector.outputs import report
+from selector.pipeline.selection import report_studies
 from tests.browser import chromium, chromium_page
 from tests.outputs.test_report import SECTIONS, XSS, _hostile_selection
 
@@ -25,7 +26,9 @@ def browser():
 @pytest.fixture(scope="module")
 def demo_report(tmp_path_factory):
     path = tmp_path_factory.mktemp("report") / "report.html"
-    report.write_report(run_spec(SPEC), path, SPEC.read_text(encoding="utf-8"), SPEC.name, robust_draws=300)
+    report.write_report(
+        report_studies(run_spec(SPEC), 300), path, SPEC.read_text(encoding="utf-8"), SPEC.name
+    )
     return path
 
 
@@ -85,7 +88,7 @@ def test_print_layout_hides_controls_and_fits_the_charts(browser, demo_report):
 def test_hostile_title_and_class_names_show_as_text_and_run_nothing(browser, tmp_path):
     path = tmp_path / "hostile.html"
     selection = _hostile_selection()
-    report.write_report(selection, path, f'title = "{XSS}"\n', "hostile.toml", robust_draws=50)
+    report.write_report(report_studies(selection, 50), path, f'title = "{XSS}"\n', "hostile.toml")
     with chromium_page(browser, 1280, 900) as log:
         _open(log, path)
         page = log.page

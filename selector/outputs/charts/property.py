@@ -11,7 +11,6 @@ import pandas as pd
 import plotly.graph_objects as go
 
 from selector.errors import InputError, SelectorError
-from selector.inputs.expressions import parse
 from selector.inputs.properties import PROPERTIES
 from selector.inputs.units import format_number
 from selector.outputs.charts.axes import (
@@ -34,7 +33,7 @@ from selector.outputs.charts.guides import (
 )
 from selector.outputs.charts.labels import _label_shortlist, _note_skipped
 from selector.outputs.charts.markup import _esc
-from selector.pipeline.screen import REJECTED, Limit, Screens, apply_screens
+from selector.pipeline.screen import REJECTED, Limit, Screens
 from selector.suggest import did_you_mean
 
 
@@ -65,8 +64,9 @@ def property_chart(
         through: id of the class the main index line passes through (at its marker).
         at: index value of the main line instead, in the chart's display units. With neither,
             the line passes through the first highlighted class, else the median class.
-        screens: limits to draw as the pass region (and to screen with when ``table`` has no
-            ``status`` column).
+        screens: limits to draw as the pass region. The chart screens nothing itself: a table
+            without a ``status`` column (from ``apply_screens`` or a Selection) draws every class
+            as passing.
         highlight: ids of the shortlist, best first; they are ringed and named.
         title: chart title (escaped).
         steps, factor: parallel index lines at value × factor^k for k = −steps … steps.
@@ -78,8 +78,6 @@ def property_chart(
     units = _check_units(units)
     xa, ya = axis_spec(x, units, "x axis"), axis_spec(y, units, "y axis")
     limits = _limits_of(screens)
-    if limits and "status" not in table.columns:
-        table = apply_screens(table.reset_index(drop=True), Screens(limits=limits))
     if (through is not None or at is not None) and index is None:
         raise InputError(
             "index line", "through= or at= was given without an index", "an index such as E^0.5/rho"
@@ -219,12 +217,13 @@ def chart_for_selection(
     the ranking index does not reduce to axes chosen here. The top ``top`` classes of the
     shortlist are named.
     """
-    typed = getattr(selection, "expression", None)
-    derivations = tuple(getattr(selection, "derivations", ()))
-    exponents = parse(typed).monomial() if typed else None
-    ranking: Any = typed if exponents is not None else (derivations[0] if derivations and not typed else None)
+    typed = selection.expression
+    derivations = tuple(selection.derivations)
+    powers = selection.index_exponents
+    ranking: Any = typed if powers is not None else None
+    if typed is None and derivations:
+        ranking = derivations[0]
     if x is None or y is None:
-        powers = exponents[1] if exponents is not None else (derivations[0].exponents if ranking else None)
         dx, dy = default_axes(powers) if powers else ("rho", "E")
         x, y = x or dx, y or dy
     units = units or getattr(selection.spec, "units", "si") or "si"

@@ -157,7 +157,7 @@ def download(start: Start, c: Controls, kind: str) -> tuple[dict[str, Any] | Non
     file as written, or as changed on the page in JSON).
     """
     try:
-        selection = _run(start, c)
+        selection = _run(start, c, for_report=kind == "report")
         name = _slug(selection.spec.title)
         if kind == "csv":
             from selector.outputs.tables import render_selection

@@ -255,13 +255,23 @@ def spec_data(start: Start, c: Controls) -> dict[str, Any]:
     return data
 
 
-def _run(start: Start, c: Controls) -> Any:
-    """The Selection for the controls (raises SelectorError on bad input)."""
+def _run(start: Start, c: Controls, for_report: bool = False) -> Any:
+    """The Selection for the controls (raises SelectorError on bad input).
+
+    ``for_report`` asks the pipeline for the studies the report shows (the usual trade-off
+    and the Monte Carlo odds), as ``selector report`` does.
+    """
     from selector.inputs.spec import spec_from_dict
     from selector.pipeline.selection import select
 
     spec = spec_from_dict(spec_data(start, c), source=start.name)
-    return select(spec, start.table)
+    if not for_report:
+        return select(spec, start.table)
+    from selector.outputs.report import DEFAULT_REPORT_DRAWS
+    from selector.pipeline.tradeoff import SECOND_OBJECTIVE
+
+    second = SECOND_OBJECTIVE.get(spec.objective.minimize)
+    return select(spec, start.table, robust=DEFAULT_REPORT_DRAWS, tradeoff=second)
 
 
 def _route(where: str) -> str:
