@@ -89,8 +89,8 @@ class Selection:
         design: the design quantities in SI (loads, lengths, limits, section) when the spec
             gives enough of them to size parts, else None.
         parsed_index: ``expression`` parsed (None without a typed index).
-        ranking_key: the column the shortlist is ordered by (``index``, ``index_low``,
-            ``objective`` or ``objective_high``).
+        ranking_key: the column the shortlist is ordered by (``index``, ``index_low`` or
+            ``objective``).
         tradeoff: the trade-off study asked for with ``select(..., tradeoff=...)``.
         robust: the Monte Carlo odds asked for with ``select(..., robust=draws)``.
         sensitivity: which property's scatter unsettles the leader (with ``sensitivity=True``).
@@ -535,7 +535,7 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
         ranked_by, key = "index", index_key
     else:
         table = rank_by_value(table, "objective", "objective_low", "objective_high")
-        ranked_by = objective
+        ranked_by, key = objective, "objective"
     return Selection(
         spec,
         screens,
