@@ -111,7 +111,7 @@ class Constraint(_Strict):
     type: Annotated[str, _one_of(CONSTRAINTS, "a constraint type")]
     max_deflection: str | None = None
     max_twist: str | None = None
-    safety_factor: float = Field(default=1.0, gt=0, allow_inf_nan=False)
+    safety_factor: float = Field(default=1.0, gt=0, allow_inf_nan=False, strict=True)
     crack_length: str | None = None
     geometry_factor: float | None = Field(default=None, gt=0, allow_inf_nan=False)
     criterion: Annotated[str, _one_of(CRITERIA, "a fracture criterion")] | None = None
@@ -204,6 +204,9 @@ def _problem(error: Any, source: str) -> InputError:
         return InputError(where, f"unknown key {key!r}", did_you_mean(key, _fields_of(Spec, loc)), loc)
     if error["type"] == "missing":
         return InputError(where, "required field is missing", "see examples/", loc)
+    if error["type"] == "float_type":  # strict numbers: true/false and quoted text are refused
+        value = error.get("input")
+        return InputError(where, f"{value!r} is not a number", "a plain number such as 1.5, unquoted", loc)
     message = error["msg"].removeprefix("Value error, ")
     what, _, expected = message.partition("; ")
     if not expected:

@@ -115,3 +115,19 @@ def test_materials_files_are_found_beside_the_spec_from_any_folder(tmp_path, mon
     table = select(spec).table
     expected = set(load_materials([DATA / "good_us.csv"], builtin=False)["id"])
     assert set(table["id"]) == expected
+
+
+@pytest.mark.parametrize(("value", "shown"), [(True, "True"), ("1.5", "'1.5'")])
+def test_a_safety_factor_must_be_a_number(value, shown):
+    data = {
+        "part": {"function": "tie", "length": "1 m", "force": "1 kN"},
+        "constraint": [{"type": "strength", "safety_factor": value}],
+    }
+    with pytest.raises(SpecError) as err:
+        spec_from_dict(data, "x.toml")
+    assert str(err.value) == (
+        f"x.toml: constraint[0].safety_factor: {shown} is not a number; a plain number such as 1.5, unquoted"
+    )
+    assert err.value.location == ("constraint", 0, "safety_factor")
+    data["constraint"][0]["safety_factor"] = 2  # an integer is a number
+    assert spec_from_dict(data).constraint[0].safety_factor == 2.0
