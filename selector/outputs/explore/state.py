@@ -12,7 +12,7 @@ from typing import Any
 
 import pandas as pd
 
-from selector.errors import SelectorError
+from selector.errors import InputError, SelectorError
 from selector.inputs.properties import FAMILIES, PROPERTIES
 from selector.inputs.spec import Spec
 from selector.inputs.units import format_number
@@ -242,7 +242,7 @@ def spec_data(start: Start, c: Controls) -> dict[str, Any]:
         if kind == "strength":
             item.pop("safety_factor", None)
             if c.safety_factor.strip():
-                item["safety_factor"] = c.safety_factor.strip()
+                item["safety_factor"] = _number(c.safety_factor, start.name, len(constraints))
         constraints.append(item)
     data["constraint"] = constraints
     screen = {k: v for k, v in data.get("screen", {}).items() if k not in EDITABLE}
@@ -253,6 +253,18 @@ def spec_data(start: Start, c: Controls) -> dict[str, Any]:
         screen["families"] = [f for f in FAMILIES if f in c.families]
     data["screen"] = screen
     return data
+
+
+def _number(text: str, source: str, index: int) -> float:
+    """The safety factor typed in its control as a number (the spec takes no quoted text)."""
+    try:
+        return float(text.strip())
+    except ValueError:
+        where = f"{source}: constraint[{index}].safety_factor"
+        what = f"{text.strip()!r} is not a number"
+        raise InputError(
+            where, what, "a positive number such as 1.5", ("constraint", index, "safety_factor")
+        ) from None
 
 
 def _run(start: Start, c: Controls, for_report: bool = False) -> Any:
