@@ -170,7 +170,7 @@ def test_outputs_import_no_computing_function():
     included) of a name from selector.pipeline.screen, derive, sizing, rank, tradeoff,
     robust or selection, the imported object must be a class (a dataclass result type such
     as RobustResult or Limit) or a value that is not callable (a constant such as REJECTED
-    or SIZED_OBJECTIVES); importing one of those modules whole is not allowed. The only
+    or EXCHANGE_LABELS); importing one of those modules whole is not allowed. The only
     functions allowed are those in ALLOWED_CALLS, each with its reason.
     """
     import importlib

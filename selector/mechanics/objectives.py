@@ -12,5 +12,24 @@ OBJECTIVE_FACTORS: dict[str, M] = {
     "co2": M.of(1, co2=1, rho=1),
     "volume": M.of(1),
 }
-OBJECTIVE_UNITS = {"mass": "kg", "cost": "USD", "co2": "kg CO2e", "volume": "m^3"}
+OBJECTIVE_UNITS: dict[str, str] = {"mass": "kg", "cost": "USD", "co2": "kg CO2e", "volume": "m³"}
+"""Unit of each objective of a sized part as people read it: the one home of these units."""
 OBJECTIVE_WORDS = {"mass": "mass m", "cost": "cost C", "co2": "embodied CO2", "volume": "volume V"}
+
+_PARSED_AS = {"kg CO2e": "kg", "m³": "m^3"}
+"""Shown units the unit parser reads under another spelling (a kilogram of CO2e is a kilogram)."""
+
+
+def readable_unit(objective: str) -> str:
+    """The unit of ``objective`` as the unit parser reads it, e.g. ``"m^3"`` for volume."""
+    unit = OBJECTIVE_UNITS[objective]
+    return _PARSED_AS.get(unit, unit)
+
+
+def exchange_unit(objective: str, readable: bool = False) -> str:
+    """Unit of an exchange constant pricing ``objective`` in USD: ``"USD/kg CO2e"`` for co2.
+
+    With ``readable`` the unit is spelled for the unit parser (``"USD/kg"``).
+    """
+    per = readable_unit(objective) if readable else OBJECTIVE_UNITS[objective]
+    return f"{OBJECTIVE_UNITS['cost']}/{per}"

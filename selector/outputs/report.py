@@ -18,6 +18,7 @@ from pathlib import Path
 from typing import Any
 
 from selector.errors import InputError, SelectorError
+from selector.mechanics.objectives import OBJECTIVE_UNITS
 
 DEFAULT_REPORT_DRAWS = 2000
 """Monte Carlo draws for the robustness figures unless asked otherwise."""
@@ -290,7 +291,6 @@ def _tradeoff_view(selection: Any) -> dict[str, Any]:
     first = selection.spec.objective.minimize
     other = selection.tradeoff.other
     front, ranges = selection.tradeoff.front, selection.tradeoff.second
-    units = {"mass": "kg", "cost": "USD", "co2": "kg CO2e", "volume": "m³"}
     rows = []
     by_id = ranges.set_index("id") if "id" in ranges else None
     for r in front.to_dict(orient="records"):
@@ -317,8 +317,8 @@ def _tradeoff_view(selection: Any) -> dict[str, Any]:
             first,
             other,
             front_ids=[str(i) for i in front["id"]],
-            x_title=f"{first} ({units[first]})",
-            y_title=f"{other} ({units[other]})",
+            x_title=f"{first} ({OBJECTIVE_UNITS[first]})",
+            y_title=f"{other} ({OBJECTIVE_UNITS[other]})",
             title=f"Trade-off: {other} against {first} of the sized parts",
         )
     except (ImportError, SelectorError) as exc:
@@ -326,8 +326,8 @@ def _tradeoff_view(selection: Any) -> dict[str, Any]:
     return {
         "x": first,
         "y": other,
-        "x_unit": units[first],
-        "y_unit": units[other],
+        "x_unit": OBJECTIVE_UNITS[first],
+        "y_unit": OBJECTIVE_UNITS[other],
         "rows": rows,
         "chart": chart,
     }

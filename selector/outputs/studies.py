@@ -6,11 +6,12 @@ import json
 
 import pandas as pd
 
+from selector.mechanics.objectives import OBJECTIVE_UNITS
 from selector.outputs.tables import render
 from selector.pipeline.robust import RobustResult
-from selector.pipeline.tradeoff import EXCHANGE_LABELS, SIZED_OBJECTIVES
+from selector.pipeline.tradeoff import EXCHANGE_LABELS
 
-_LABELS = {**{k: f"{k} [{u}]" for k, u in SIZED_OBJECTIVES.items()}, "penalty": "penalty [USD]"}
+_LABELS = {**{k: f"{k} [{u}]" for k, u in OBJECTIVE_UNITS.items()}, "penalty": "penalty [USD]"}
 
 
 def _display(frame: pd.DataFrame) -> pd.DataFrame:
@@ -44,7 +45,7 @@ def render_tradeoff(
     if fmt == "csv":
         return render(_display(second), "csv")
     body = "md" if fmt == "md" else "table"
-    objectives = [c for c in front.columns if c in SIZED_OBJECTIVES or c.startswith("index")]
+    objectives = [c for c in front.columns if c in OBJECTIVE_UNITS or c.startswith("index")]
     lines = [
         f"Pareto front ({' vs '.join(objectives)}; all minimised): {len(front)} members",
         "",

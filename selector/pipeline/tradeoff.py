@@ -23,15 +23,14 @@ import numpy as np
 import pandas as pd
 
 from selector.errors import InputError
+from selector.mechanics.objectives import OBJECTIVE_UNITS, exchange_unit
 from selector.suggest import did_you_mean
 
-SIZED_OBJECTIVES: dict[str, str] = {"mass": "kg", "cost": "USD", "co2": "kg CO2e", "volume": "m³"}
-"""Objective column → unit, for the columns a sized selection carries."""
-SECOND_OBJECTIVE: dict[str, str] = {o: "cost" if o != "cost" else "mass" for o in SIZED_OBJECTIVES}
+SECOND_OBJECTIVE: dict[str, str] = {o: "cost" if o != "cost" else "mass" for o in OBJECTIVE_UNITS}
 """The usual objective to trade each ranked objective against (the report's trade-off)."""
-EXCHANGE_UNITS: dict[str, str] = {"mass": "USD/kg", "co2": "USD/kg", "volume": "USD/m^3"}
+EXCHANGE_UNITS: dict[str, str] = {o: exchange_unit(o, readable=True) for o in OBJECTIVE_UNITS if o != "cost"}
 """Unit an exchange constant is read in, per objective it prices (CO2 per kg CO2e)."""
-EXCHANGE_LABELS: dict[str, str] = {"mass": "USD/kg", "co2": "USD/kg CO2e", "volume": "USD/m³"}
+EXCHANGE_LABELS: dict[str, str] = {o: exchange_unit(o) for o in OBJECTIVE_UNITS if o != "cost"}
 COLLINEAR_TOLERANCE = 1e-9
 """Relative distance from a hull edge under which a front member counts as lying on it."""
 
@@ -145,9 +144,9 @@ def _check_objectives(table: pd.DataFrame, objectives: Sequence[str], where: str
         for c in table.columns
         if c == "index" or (c.startswith("index_") and c not in ("index_low", "index_high"))
     ]
-    valid = [*SIZED_OBJECTIVES, *index_columns]
+    valid = [*OBJECTIVE_UNITS, *index_columns]
     for name in names:
-        if name in SIZED_OBJECTIVES and name not in table:
+        if name in OBJECTIVE_UNITS and name not in table:
             raise InputError(
                 where,
                 f"{name!r} needs sized parts, but the spec gives no loads to size them",
@@ -163,7 +162,7 @@ def _signed(table: pd.DataFrame, names: Sequence[str]) -> np.ndarray:
     cols = []
     for name in names:
         v = pd.to_numeric(table[name], errors="coerce").to_numpy(dtype=float)
-        cols.append(v if name in SIZED_OBJECTIVES else -v)
+        cols.append(v if name in OBJECTIVE_UNITS else -v)
     return np.column_stack(cols) if cols else np.empty((len(table), 0))
 
 
@@ -286,9 +285,9 @@ def exchange_ranges(source: Any, x: str = "mass", y: str = "cost") -> pd.DataFra
     """
     table = _table_of(source)
     for name in (x, y):
-        if name not in SIZED_OBJECTIVES:
+        if name not in OBJECTIVE_UNITS:
             raise InputError(
-                "exchange ranges", f"{name!r} is not a sized objective", did_you_mean(name, SIZED_OBJECTIVES)
+                "exchange ranges", f"{name!r} is not a sized objective", did_you_mean(name, OBJECTIVE_UNITS)
             )
     names = _check_objectives(table, (x, y), "exchange ranges")
     front = pareto_table(table, names)
@@ -323,7 +322,7 @@ def exchange_ranges(source: Any, x: str = "mass", y: str = "cost") -> pd.DataFra
     out = front.drop(columns="on_front")
     out["alpha_low"] = low[member]
     out["alpha_high"] = high[member]
-    out["alpha_unit"] = f"{SIZED_OBJECTIVES[y]}/{SIZED_OBJECTIVES[x]}"
+    out["alpha_unit"] = f"{OBJECTIVE_UNITS[y]}/{OBJECTIVE_UNITS[x]}"
     out["on_hull"] = on_hull[member]
     out["note"] = [notes[m] for m in member]
     return out
@@ -370,16 +369,14 @@ def tradeoff_report(
             "parts are not sized (the spec gives no loads), so they have no mass or cost",
             "add the loads and limits the sizing needs",
         )
-    if other not in SIZED_OBJECTIVES:
-        raise InputError(
-            "--tradeoff", f"{other!r} is not an objective", did_you_mean(other, SIZED_OBJECTIVES)
-        )
+    if other not in OBJECTIVE_UNITS:
+        raise InputError("--tradeoff", f"{other!r} is not an objective", did_you_mean(other, OBJECTIVE_UNITS))
     if other == first:
         raise InputError(
             "--tradeoff",
             f"the shortlist is already ranked by {other}",
             f"a second objective other than {first}: one of "
-            + ", ".join(o for o in SIZED_OBJECTIVES if o != first),
+            + ", ".join(o for o in OBJECTIVE_UNITS if o != first),
         )
     table = pareto_table(selection, (first, other))
     front = table[table["on_front"]].drop(columns="on_front").reset_index(drop=True)
@@ -402,7 +399,6 @@ def tradeoff_report(
 __all__ = [
     "EXCHANGE_UNITS",
     "SECOND_OBJECTIVE",
-    "SIZED_OBJECTIVES",
     "TradeoffStudy",
     "exchange_ranges",
     "pareto_front",
