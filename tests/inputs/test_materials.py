@@ -801,10 +801,11 @@ def test_fuzzed_toml_values_never_escape(
 def test_the_fast_read_of_the_builtin_table_equals_the_validated_read():
     import materials_db
     from selector.inputs import materials
+    from selector.inputs.material_files import read_csv
 
     path = Path(materials_db.CLASSES_CSV)
     fast = materials._read_trusted(path)
-    slow, problems = materials._read_csv(path, str(path), user=False)
+    slow, problems = read_csv(path, str(path), user=False)
     assert problems == []
     assert fast is not None
     pd.testing.assert_frame_equal(fast.reset_index(drop=True), slow.reset_index(drop=True), check_dtype=False)
