@@ -12,7 +12,7 @@ import plotly.graph_objects as go
 
 from selector.errors import InputError
 from selector.inputs.expressions import Expression, parse
-from selector.inputs.properties import PROPERTIES
+from selector.inputs.properties import DERIVED_PROPERTIES, PROPERTIES, property_of
 from selector.inputs.units import convert
 from selector.outputs.charts.markup import (
     _esc,
@@ -70,7 +70,7 @@ def _check_units(units: str) -> str:
 
 
 def _display_label(symbol: str, units: str) -> str:
-    prop = PROPERTIES[symbol]
+    prop = property_of(symbol)
     label = prop.us_label if units == "us" else prop.label
     return "" if label == "–" else label
 
@@ -103,8 +103,8 @@ def axis_spec(text: str, units: str = "si", where: str = "axis") -> AxisSpec:
     if not isinstance(text, str) or not text.strip():
         raise InputError(where, f"{text!r} is not an axis", "a property symbol such as rho or an expression")
     text = text.strip()
-    if text in PROPERTIES:
-        prop = PROPERTIES[text]
+    if text in PROPERTIES or text in DERIVED_PROPERTIES:
+        prop = property_of(text)
         return AxisSpec(
             text,
             (text,),
@@ -138,8 +138,18 @@ def axis_spec(text: str, units: str = "si", where: str = "axis") -> AxisSpec:
 
 
 def _display_values(table: pd.DataFrame, symbol: str, units: str) -> tuple[np.ndarray, np.ndarray]:
-    """Low and high of one property in display units."""
-    prop = PROPERTIES[symbol]
+    """Low and high of one property in display units.
+
+    Raises:
+        InputError: a derived property (``sigma_R``) the table does not carry.
+    """
+    prop = property_of(symbol)
+    if prop.low not in table.columns:
+        raise InputError(
+            "chart",
+            f"{symbol} ({prop.name}) is computed for one requirement and this table has none",
+            "a chart of a spec with a fatigue constraint at a load ratio (--spec), or stored properties",
+        )
     low = table[prop.low].to_numpy(dtype=float)
     high = table[prop.high].to_numpy(dtype=float)
     if units == "us":
@@ -148,7 +158,7 @@ def _display_values(table: pd.DataFrame, symbol: str, units: str) -> tuple[np.nd
 
 
 def _display_value(symbol: str, value: float, units: str) -> float:
-    prop = PROPERTIES[symbol]
+    prop = property_of(symbol)
     return float(convert(value, prop.stored, prop.us, symbol)) if units == "us" else float(value)
 
 

@@ -12,7 +12,7 @@ import plotly.graph_objects as go
 
 from selector.errors import InputError
 from selector.inputs.expressions import parse
-from selector.inputs.properties import PROPERTIES
+from selector.inputs.properties import DERIVED_PROPERTIES, PROPERTIES
 from selector.inputs.units import format_number
 from selector.outputs.charts.axes import AxisSpec, _display_value, _log_or_linear, _to_data, _units_html
 from selector.outputs.charts.markup import (
@@ -75,7 +75,7 @@ def _index_powers(index: Any) -> tuple[float, dict[str, float], str]:
         )
     powers: dict[str, float] = {}
     for s, p in exponents.items():
-        if s not in PROPERTIES:
+        if s not in PROPERTIES and s not in DERIVED_PROPERTIES:
             from selector.inputs.properties import get
 
             get(s)

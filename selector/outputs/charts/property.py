@@ -11,7 +11,7 @@ import pandas as pd
 import plotly.graph_objects as go
 
 from selector.errors import InputError, SelectorError
-from selector.inputs.properties import PROPERTIES
+from selector.inputs.properties import property_of
 from selector.inputs.units import format_number
 from selector.outputs.charts.axes import (
     _axis_layout,
@@ -123,8 +123,8 @@ def property_chart(
         subtitle.append(f"top {len(labelled)} of the shortlist named")
     _note_skipped(fig, skipped, f"no data for {x} or {y}, or not positive on a log axis")
     default_title = (
-        f"{_esc(PROPERTIES[y].name.capitalize()) if ya.is_property else ya.label} against "
-        f"{_esc(PROPERTIES[x].name) if xa.is_property else xa.label}"
+        f"{_esc(property_of(y).name.capitalize()) if ya.is_property else ya.label} against "
+        f"{_esc(property_of(x).name) if xa.is_property else xa.label}"
     )
     _base_layout(
         fig,
