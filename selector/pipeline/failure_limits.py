@@ -7,6 +7,7 @@ lowest natural frequency, and the effective span of a plate's first mode.
 
 from __future__ import annotations
 
+from collections.abc import Iterable, Mapping
 from typing import Any
 
 import numpy as np
@@ -120,6 +121,25 @@ def with_fatigue_strength(table: pd.DataFrame, load_ratio: float) -> pd.DataFram
         e = table[f"sigma_e_{end}"].to_numpy(dtype=float)
         ts = table[f"sigma_ts_{end}"].to_numpy(dtype=float)
         out[f"{prop.symbol}_{end}"] = fm.goodman_strength(e, ts, load_ratio)
+    return out
+
+
+def stored_symbols(symbols: Iterable[str]) -> tuple[str, ...]:
+    """The stored properties behind ``symbols``: a derived one (sigma_R) replaced by what it is made of."""
+    out: list[str] = []
+    for s in symbols:
+        out += MADE_OF.get(s, (s,))
+    return tuple(sorted(set(out)))
+
+
+def with_derived_values(values: Mapping[str, Any], load_ratio: float) -> dict[str, Any]:
+    """``values`` (stored units) with the Goodman ``sigma_R`` at R added when sigma_e and sigma_ts are there.
+
+    Sampled values recombine draw by draw: σ_R of one draw comes from that draw's σ_e and σ_ts.
+    """
+    out = dict(values)
+    if "sigma_e" in out and "sigma_ts" in out:
+        out["sigma_R"] = fm.goodman_strength(out["sigma_e"], out["sigma_ts"], load_ratio)
     return out
 
 

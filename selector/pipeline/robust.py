@@ -17,7 +17,14 @@ value itself for linear ones, between ``a = t(low)`` and ``b = t(high)``):
   end); with ``clip=False`` they are kept.
 
 Properties of one class are drawn independently of each other (correlations
-within a class are not modelled). The hot path is numpy over a draws × classes
+within a class are not modelled). A derived property is not drawn: the Goodman
+fatigue strength σ_R = 2/((1−R)/σe + (1+R)/σts) is recombined in every draw from
+that draw's σe and σts. A sized part's checks that set no size (a tie's axial
+frequency, yield before break) are re-run in every draw, and a class that fails
+one ranks last in that draw. The brittle rule is not re-drawn: it is a screen on
+the class's K_IC range (partly passing classes already keep only the part above
+the threshold), and K_IC enters the ranking only with a fracture constraint, which
+lifts the rule. The hot path is numpy over a draws × classes
 array; draws are processed in blocks to bound memory, with no Python loop over
 single draws or classes. Results are deterministic for a given seed: each
 property has its own random stream derived from the seed, so runs that sample
@@ -172,7 +179,15 @@ def _typical(low: np.ndarray, high: np.ndarray, log: bool) -> np.ndarray:
 
 
 def _model(selection) -> tuple[pd.DataFrame, tuple[str, ...], KeyFunction]:
-    """Ranked candidates, the properties the ranking uses and a key (lower = better) of stored-unit values."""
+    """Ranked candidates, the stored properties drawn and a key (lower = better) of stored-unit values.
+
+    A derived property (the Goodman strength sigma_R) is never drawn itself: its stored
+    parts (sigma_e, sigma_ts) are, and it is recombined in every draw. A sized part's
+    size-free checks (a tie's axial frequency, yield before break) are re-checked in
+    every draw; a class that fails one in a draw ranks last in that draw.
+    """
+    from selector.pipeline import failure_limits as fl
+
     cand = selection.shortlist.reset_index(drop=True)
     if not selection.sized and selection.expression is not None:
         expr = selection.parsed_index
@@ -181,20 +196,21 @@ def _model(selection) -> tuple[pd.DataFrame, tuple[str, ...], KeyFunction]:
             return -np.asarray(expr.evaluate(values))
 
         return cand, tuple(sorted(expr.symbols)), expression_key
+    load_ratio = fl.requirement_of(list(selection.spec.constraint))[1]
     if not selection.sized:
         exponents = dict(selection.derivations[0].exponents)
-        symbols = tuple(sorted(exponents))
 
         def index_key(values: Mapping[str, np.ndarray]) -> np.ndarray:
+            full = fl.with_derived_values(values, load_ratio)
             result: np.ndarray | float = 1.0
             with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
                 for s, p in exponents.items():
-                    result = result * values[s] ** p
+                    result = result * full[s] ** p
             return -np.asarray(result)
 
-        return cand, symbols, index_key
+        return cand, fl.stored_symbols(exponents), index_key
 
-    from selector.pipeline.sizing import objective_samples
+    from selector.pipeline.sizing import objective_samples, screen_samples
 
     derivations = list(selection.derivations)
     design = selection.design
@@ -204,14 +220,24 @@ def _model(selection) -> tuple[pd.DataFrame, tuple[str, ...], KeyFunction]:
 
         used = set(OBJECTIVE_FACTORS[selection.spec.objective.minimize].symbols)
     else:
-        used = set().union(*(d.objective_value.symbols for d in derivations)) & MATERIAL_SYMBOLS
-    symbols = tuple(sorted(used))
-    factors = {s: property_of(s).si_factor for s in symbols}
+        used = set().union(*(d.objective_value.symbols for d in derivations))
+        used |= set().union(*(d.material_factor.symbols for d in derivations if d.screen))
+        used &= MATERIAL_SYMBOLS
+    symbols = fl.stored_symbols(used)
+    factors = {s: property_of(s).si_factor for s in used | set(symbols)}
+
+    def sized(values: Mapping[str, np.ndarray]) -> tuple[np.ndarray, np.ndarray | None]:
+        full = fl.with_derived_values(values, load_ratio)
+        si = {s: full[s] * factors[s] for s in factors}
+        return objective_samples(derivations, design, si), screen_samples(derivations, design, si)
+
     # The closed-form objective can differ from the exactly sized part (thin-wall
-    # section models); scale each class so both agree at its typical properties.
+    # section models); scale each class so both agree at the typical properties the
+    # sizing used (for sigma_R the geometric mean of its own range).
     mid = {
-        s: np.sqrt(cand[property_of(s).low].to_numpy(float) * cand[property_of(s).high].to_numpy(float)) * f
-        for s, f in factors.items()
+        s: _typical(cand[property_of(s).low].to_numpy(float), cand[property_of(s).high].to_numpy(float), True)
+        * factors[s]
+        for s in factors
     }
     closed = np.broadcast_to(objective_samples(derivations, design, mid), len(cand))
     with np.errstate(divide="ignore", invalid="ignore"):
@@ -219,8 +245,9 @@ def _model(selection) -> tuple[pd.DataFrame, tuple[str, ...], KeyFunction]:
     scale = np.where(np.isfinite(scale) & (scale > 0), scale, 1.0)
 
     def objective_key(values: Mapping[str, np.ndarray]) -> np.ndarray:
-        si = {s: v * factors[s] for s, v in values.items()}
-        return objective_samples(derivations, design, si) * scale
+        objective, passes = sized(values)
+        key = objective * scale
+        return key if passes is None else np.where(passes, key, np.inf)
 
     return cand, symbols, objective_key
 

@@ -520,3 +520,31 @@ def objective_samples(
             value = np.asarray(d.objective_value.evaluate(dict(properties) | _inputs(d, design, constants)))
             result = value if result is None else np.fmax(result, value)
     return np.asarray(result)
+
+
+def screen_samples(
+    derivations: list[Derivation], design: Design, properties: Mapping[str, np.ndarray]
+) -> np.ndarray | None:
+    """True where every size-free check (``Derivation.screen``) passes for sampled properties.
+
+    A screen's utilisation (e.g. f_min/f₁ of a tie's axial mode) does not involve the
+    free variable, so it is the product of its material and load/geometry factors
+    evaluated with the spec's values. None when the derivations hold no such check.
+
+    Args:
+        derivations: one per constraint of the spec.
+        design: loads, limits and section in SI.
+        properties: property symbol → values in SI units (any one broadcastable shape).
+    """
+    checks = [d for d in derivations if d.screen]
+    if not checks or design.free == "none":
+        return None
+    constants = design_constants(derivations, design)
+    passes: np.ndarray | bool = True
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        for d in checks:
+            utilisation = (d.material_factor * d.geometry_factor).evaluate(
+                dict(properties) | _inputs(d, design, constants)
+            )
+            passes = passes & (np.asarray(utilisation) <= 1 + CHECK_TOLERANCE)
+    return np.asarray(passes)
