@@ -379,6 +379,25 @@ def _chart_html(fig: Any, div_id: str) -> Any:
     )
 
 
+def _failure_mode_limits(c: Any) -> list[str]:
+    """What a fracture, fatigue or frequency constraint states, as the spec wrote it."""
+    from selector.mechanics.failure_modes import DEFAULT_GEOMETRY_FACTOR, FULLY_REVERSED
+
+    out = []
+    if c.type == "fracture":
+        out += [f"crack length a = {c.crack_length}"] if c.crack_length else []
+        out.append(f"geometry factor Y = {_number(c.geometry_factor or DEFAULT_GEOMETRY_FACTOR)}")
+        out += [f"criterion {c.criterion}"] if c.criterion else []
+    if c.type == "fatigue":
+        ratio = FULLY_REVERSED if c.load_ratio is None else c.load_ratio
+        out.append(
+            f"load ratio R = {_number(ratio)}" + (" (fully reversed)" if ratio == -1 else ", Goodman line")
+        )
+    if c.type == "frequency" and c.min_frequency:
+        out.append(f"lowest natural frequency {c.min_frequency}")
+    return out
+
+
 def _summary(selection: Any, units: str) -> list[tuple[str, Any]]:
     spec = selection.spec
     part = spec.part
@@ -399,7 +418,9 @@ def _summary(selection: Any, units: str) -> list[tuple[str, Any]]:
     for c in spec.constraint:
         limits = [f"max deflection {c.max_deflection}"] if c.max_deflection else []
         limits += [f"max twist {c.max_twist}"] if c.max_twist else []
-        limits.append(f"safety factor {_number(c.safety_factor)}")
+        limits += _failure_mode_limits(c)
+        if c.type != "frequency":  # a frequency limit carries its margin in min_frequency
+            limits.append(f"safety factor {_number(c.safety_factor)}")
         facts.append((f"{c.type} constraint", ", ".join(limits)))
     facts.append(("merit index (maximise)", formula_html(f"M = {selection.index_text}")))
     ranked = f"{selection.ranked_by} of the sized part" if selection.sized else "merit index"

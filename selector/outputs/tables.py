@@ -405,8 +405,12 @@ def _compact(frame: pd.DataFrame, units: str) -> pd.DataFrame:
                 out[col] = frame[col]
         out["governing"] = frame["governing"].fillna("–")
         out["utilisation"] = [_util_text(u) for u in frame["utilisation"]]
-        notes = [("; ".join(w) if isinstance(w, list) else "") for w in frame["warnings"]]
-        reasons = ["; ".join(r) for r in frame["reasons"]]
+        warned = [w if isinstance(w, list) else [] for w in frame["warnings"]]
+        notes = ["; ".join(w) for w in warned]
+        # an unsizable part's warnings are also its reasons: show each once
+        reasons = [
+            "; ".join(x for x in r if x not in w) for r, w in zip(frame["reasons"], warned, strict=True)
+        ]
         out["notes"] = ["; ".join(x for x in pair if x) for pair in zip(notes, reasons, strict=True)]
     else:
         out["reasons"] = ["; ".join(r) for r in frame["reasons"]]

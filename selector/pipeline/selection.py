@@ -474,7 +474,9 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
         case.constraint_notes[d.constraint] for d in derivations if d.constraint in case.constraint_notes
     ]
     notes += [
-        f"{d.constraint} sets no size: it checks each class; {d.steps[-1]}" for d in derivations if d.screen
+        f"{d.constraint} sets no size: it checks each class; {d.steps[-1][:1].lower()}{d.steps[-1][1:]}"
+        for d in derivations
+        if d.screen
     ]
     if (screened["status"] == PARTLY).any():
         notes.append("classes that pass partly are ranked on the part of their ranges that meets the screens")
