@@ -310,7 +310,7 @@ def _check_columns(
         if not have and prop.symbol in REQUIRED:
             skip[prop.low][:] = skip[prop.high][:] = True
     if not user:
-        for col in (*RATINGS, "name", "note", "source"):
+        for col in (*RATINGS, "name", "short_name", "note", "source"):
             if col not in filled:
                 report.at(
                     -1,

@@ -276,10 +276,20 @@ def _text(series: pd.Series) -> np.ndarray:
     ).to_numpy(dtype=object)
 
 
+SHORT_NAME_LENGTH = 12
+"""The longest short name, in characters; terminal tables show it when the full name does not fit."""
+
+
+def short_name(name: str) -> str:
+    """A short name for a class that has none: the name itself, or its first characters and "…"."""
+    return name if len(name) <= SHORT_NAME_LENGTH else name[: SHORT_NAME_LENGTH - 1].rstrip() + "…"
+
+
 def finish(table: pd.DataFrame) -> pd.DataFrame:
     """Column order and dtypes of a loaded table; an empty name takes the id."""
     out = table.loc[:, list(COLUMNS)].copy()
     out["name"] = out["name"].where(out["name"].ne(""), out["id"])
+    out["short_name"] = out["short_name"].where(out["short_name"].ne(""), out["name"].map(short_name))
     for col in COLUMNS:
         out[col] = out[col].astype(float) if col in NUMERIC else out[col].astype(str)
     return out.reset_index(drop=True)

@@ -243,12 +243,12 @@ NOT_APPLICABLE = "n/a"
 HIGH_IS_UNFAVOURABLE = frozenset({"rho", "price", "co2", "energy"})
 """Properties whose high end is the unfavourable one when a part is sized (for the rest, the low end)."""
 
-TEXT_COLUMNS: tuple[str, ...] = ("id", "name", "family", "directions", "note", "source")
+TEXT_COLUMNS: tuple[str, ...] = ("id", "name", "short_name", "family", "directions", "note", "source")
 
 
 def data_columns() -> list[str]:
     """Every column of a complete materials table, in order."""
-    cols = ["id", "name", "family"]
+    cols = ["id", "name", "short_name", "family"]
     for prop in PROPERTIES.values():
         cols += [prop.low, prop.high]
     return cols + list(RATINGS) + ["directions", "note", "source"]

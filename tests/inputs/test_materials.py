@@ -494,7 +494,7 @@ CASES = [
         {},
         {"nu": "poisson"},
         "row 1, column poisson: unknown column 'poisson'; "
-        "expected one of id, name, family, directions, note, source, "
+        "expected one of id, name, short_name, family, directions, note, source, "
         "a rating (fresh_water, salt_water, uv, flammability) or a property ("
         + ", ".join(PROPERTIES)
         + ") as '<sym> [unit]', '<sym>_low [unit]' or '<sym>_high [unit]'",

@@ -338,6 +338,16 @@ def test_at_least_80_classes_with_unique_slug_ids(raw):
     assert all(re.fullmatch(r"[a-z0-9]+(-[a-z0-9]+)*", i) for i in raw["id"])
 
 
+def test_every_class_has_a_unique_short_name_for_narrow_tables(raw):
+    # the terminal shows short names when full names do not fit (common practice, no source)
+    names = raw["short_name"].str.strip()
+    assert (names != "").all(), list(raw["id"][names == ""])
+    assert names.is_unique, list(names[names.duplicated(keep=False)])
+    too_long = [n for n in names if len(n) > 12]
+    assert too_long == []
+    assert names.str.casefold().is_unique  # no two differ only by case
+
+
 def test_all_nine_families_present(raw):
     assert set(raw["family"]) == set(FAMILIES)
 
