@@ -7,6 +7,24 @@ stores engineering units (``stored``); ``to_si`` converts once for computation.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import TYPE_CHECKING, Any
+
+if TYPE_CHECKING:
+    import numpy as np
+
+
+def typical_value(low: Any, high: Any, log: bool = True) -> np.ndarray:
+    """The typical value of a range [low, high], the one definition every step uses.
+
+    On a log scale it is the geometric mean √(low·high); on a linear scale the
+    midpoint (low + high)/2. Works element-wise on arrays; a negative product on a
+    log scale gives NaN (no warning). Any unit, the result is in the same one.
+    """
+    import numpy as np
+
+    lo, hi = np.asarray(low, dtype=float), np.asarray(high, dtype=float)
+    with np.errstate(invalid="ignore"):
+        return np.sqrt(lo * hi) if log else (lo + hi) / 2
 
 
 @dataclass(frozen=True)
@@ -47,6 +65,10 @@ class Property:
     @property
     def high(self) -> str:
         return f"{self.symbol}_high"
+
+    def typical(self, low: Any, high: Any) -> np.ndarray:
+        """The typical value of this property's range (``typical_value`` on its own scale)."""
+        return typical_value(low, high, self.log)
 
 
 def _p(*args, **kwargs) -> Property:

@@ -18,15 +18,14 @@ from selector.pipeline.screen import REJECTED
 
 
 def property_arrays(table: pd.DataFrame, symbols: list[str] | frozenset[str]) -> tuple[dict, dict, dict]:
-    """low, high and geometric-mean arrays (stored units) for each symbol."""
+    """low, high and typical (``Property.typical``) arrays, in stored units, for each symbol."""
     low, high, mid = {}, {}, {}
     for s in symbols:
         prop = property_of(s)
         lo = table[prop.low].to_numpy(dtype=float)
         hi = table[prop.high].to_numpy(dtype=float)
         low[s], high[s] = lo, hi
-        with np.errstate(invalid="ignore"):
-            mid[s] = np.sqrt(lo * hi) if prop.log else (lo + hi) / 2
+        mid[s] = prop.typical(lo, hi)
     return low, high, mid
 
 

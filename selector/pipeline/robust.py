@@ -174,10 +174,6 @@ def _ranges(
     return low, high
 
 
-def _typical(low: np.ndarray, high: np.ndarray, log: bool) -> np.ndarray:
-    return np.sqrt(low * high) if log else (low + high) / 2
-
-
 def _model(selection) -> tuple[pd.DataFrame, tuple[str, ...], KeyFunction]:
     """Ranked candidates, the stored properties drawn and a key (lower = better) of stored-unit values.
 
@@ -235,8 +231,7 @@ def _model(selection) -> tuple[pd.DataFrame, tuple[str, ...], KeyFunction]:
     # section models); scale each class so both agree at the typical properties the
     # sizing used (for sigma_R the geometric mean of its own range).
     mid = {
-        s: _typical(cand[property_of(s).low].to_numpy(float), cand[property_of(s).high].to_numpy(float), True)
-        * factors[s]
+        s: property_of(s).typical(cand[property_of(s).low], cand[property_of(s).high]) * factors[s]
         for s in factors
     }
     closed = np.broadcast_to(objective_samples(derivations, design, mid), len(cand))
@@ -275,7 +270,7 @@ def _rank_histogram(
     drawn = set(symbols) if sampled is None else set(sampled) & set(symbols)
     streams = {s: _stream(seed, _PROPERTY_STREAM[s]) for s in drawn}
     ties = _stream(seed, _TIE_STREAM)
-    fixed = {s: _typical(low[s], high[s], property_of(s).log) for s in symbols if s not in drawn}
+    fixed = {s: property_of(s).typical(low[s], high[s]) for s in symbols if s not in drawn}
     block = max(1, BLOCK_ELEMENTS // n)
     offsets = (np.arange(n) * n)[None, :]
     positions = np.arange(n)[None, :]

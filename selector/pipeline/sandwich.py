@@ -157,11 +157,11 @@ def _members(table: pd.DataFrame, chosen: Sequence[str] | None, default: tuple[s
 
 
 def _values(table: pd.DataFrame, symbol: str, end: str) -> np.ndarray:
-    """One property in SI: the geometric mean of the range, or its low or high end."""
+    """One property in SI: the typical value of the range, or its low or high end."""
     prop = PROPERTIES[symbol]
     low = table[prop.low].to_numpy(dtype=float) * prop.si_factor
     high = table[prop.high].to_numpy(dtype=float) * prop.si_factor
-    return {"low": low, "high": high, "mid": np.sqrt(low * high)}[end]
+    return {"low": low, "high": high, "mid": prop.typical(low, high)}[end]
 
 
 def _ends(conservative: bool) -> tuple[str, str]:

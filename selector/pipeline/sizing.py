@@ -130,7 +130,7 @@ def missing_inputs(derivations: list[Derivation], design: Design) -> list[str]:
 
 
 def _si(table: pd.DataFrame, symbols: set[str], pick: str) -> dict[str, np.ndarray]:
-    """Property arrays in SI at the ``low``, ``high`` or ``mid`` (geometric mean) of each range,
+    """Property arrays in SI at the ``low``, ``high`` or ``mid`` (typical value) of each range,
     or at the ``unfavourable`` end (low strength and stiffness; high ρ, price, CO2, energy)."""
     out = {}
     for s in symbols & MATERIAL_SYMBOLS:
@@ -138,7 +138,7 @@ def _si(table: pd.DataFrame, symbols: set[str], pick: str) -> dict[str, np.ndarr
         lo = table[prop.low].to_numpy(dtype=float) * prop.si_factor
         hi = table[prop.high].to_numpy(dtype=float) * prop.si_factor
         worst = hi if s in HIGH_IS_UNFAVOURABLE else lo
-        out[s] = {"low": lo, "high": hi, "mid": np.sqrt(lo * hi), "unfavourable": worst}[pick]
+        out[s] = {"low": lo, "high": hi, "mid": prop.typical(lo, hi), "unfavourable": worst}[pick]
     return out
 
 

@@ -12,7 +12,7 @@ import plotly.graph_objects as go
 
 from selector.errors import InputError
 from selector.inputs.expressions import Expression, parse
-from selector.inputs.properties import DERIVED_PROPERTIES, PROPERTIES, property_of
+from selector.inputs.properties import DERIVED_PROPERTIES, PROPERTIES, property_of, typical_value
 from selector.inputs.units import convert
 from selector.outputs.charts.markup import (
     _esc,
@@ -162,11 +162,6 @@ def _display_value(symbol: str, value: float, units: str) -> float:
     return float(convert(value, prop.stored, prop.us, symbol)) if units == "us" else float(value)
 
 
-def _centre(low: np.ndarray, high: np.ndarray, log: bool) -> np.ndarray:
-    with np.errstate(invalid="ignore"):
-        return np.sqrt(low * high) if log else (low + high) / 2
-
-
 def axis_values(table: pd.DataFrame, axis: AxisSpec) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """(low, high, centre) of the axis quantity for every class, in display units."""
     if axis.is_property:
@@ -177,7 +172,7 @@ def axis_values(table: pd.DataFrame, axis: AxisSpec) -> tuple[np.ndarray, np.nda
         for s in axis.symbols:
             lows[s], highs[s] = _display_values(table, s, axis.units)
         low, high = axis.expression.interval(lows, highs)
-    return low, high, _centre(low, high, axis.log)
+    return low, high, typical_value(low, high, axis.log)
 
 
 @dataclass(frozen=True)
