@@ -48,12 +48,14 @@ from selector.inputs.properties import (
 )
 from selector.suggest import did_you_mean
 
+FILE_EXPECTED = "expected the path of a materials file (.csv, .toml, .xlsx or .parquet)"
+
 
 def read_text(path: Path, label: str) -> tuple[str, list[Problem]]:
     try:
         data = path.read_bytes()
     except FileNotFoundError:
-        return "", [Problem(label, "file not found", "expected the path of a .csv or .toml materials file")]
+        return "", [Problem(label, "file not found", FILE_EXPECTED)]
     except OSError as exc:
         return "", [
             Problem(label, f"cannot read the file ({exc.strerror or exc})", "expected a readable file")
@@ -82,9 +84,7 @@ def read_csv(path: Path, label: str, user: bool) -> tuple[pd.DataFrame, list[Pro
         return pd.DataFrame(), [
             Problem(where, f"malformed CSV: {exc}", "expected comma-separated cells, quotes in pairs")
         ]
-    if not records or not any(cell.strip() for cell in records[0]):
-        return pd.DataFrame(), [Problem(label, "no header row", "expected a first row naming the columns")]
-    header = records[0]
+    header = records[0] if records else []
     if len(header) == 1 and (";" in header[0] or "\t" in header[0]):
         sep = "semicolons" if ";" in header[0] else "tabs"
         return pd.DataFrame(), [

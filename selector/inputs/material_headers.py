@@ -54,10 +54,29 @@ class _Header:
         return NUMERIC.get(self.targets[0]) if self.targets else None
 
 
-def read_grid(records: list[list[str]], label: str, user: bool) -> tuple[pd.DataFrame, list[Problem]]:
-    """A table and its problems from rows of cells; the first row is the header (row 1)."""
+def read_grid(
+    records: list[list[str]],
+    label: str,
+    user: bool,
+    sheet: bool = False,
+    refused: Mapping[tuple[int, int], tuple[str, str]] | None = None,
+) -> tuple[pd.DataFrame, list[Problem]]:
+    """A table and its problems from rows of cells; the first row is the header (row 1).
+
+    With ``sheet`` the cells are named as in a spreadsheet (``B7``) rather than by row
+    and column name. ``refused`` maps (row number, 0-based column) of cells the reader
+    could not take to (what, expected); they are reported and not read.
+    """
+    refused = refused or {}
+    if not records or not any(cell.strip() for cell in records[0]):
+        return pd.DataFrame(), [Problem(label, "no header row", "expected a first row naming the columns")]
     header = records[0]
-    body = [(n, row) for n, row in enumerate(records[1:], start=2) if any(cell.strip() for cell in row)]
+    refused_rows = {n for n, _ in refused}
+    body = [
+        (n, row)
+        for n, row in enumerate(records[1:], start=2)
+        if any(cell.strip() for cell in row) or n in refused_rows
+    ]
     width = len(header)
     cells = pd.DataFrame(
         [[cell.strip() for cell in (row + [""] * width)[:width]] for _, row in body],
@@ -66,15 +85,33 @@ def read_grid(records: list[list[str]], label: str, user: bool) -> tuple[pd.Data
     )
     lengths = np.array([len(row) for _, row in body], dtype=int)
     padded = np.arange(width)[None, :] >= lengths[:, None]
+    """Cells not to read: missing from a short row, or refused by the reader (reported below)."""
     heads = [_parse_header(k, h) for k, h in enumerate(header)]
     names = {col: h.stem for h in heads for col in h.targets}
     order = {col: h.index for h in heads for col in h.targets}
-    report = Report(Where(label, tuple(f"row {n}" for n, _ in body), names, order, "column"))
+    letters = {col: column_letter(h.index) for h in heads for col in h.targets} if sheet else None
+    numbers = tuple(n for n, _ in body)
+    report = Report(
+        Where(label, tuple(f"row {n}" for n in numbers), names, order, "column", letters, numbers)
+    )
+
+    def header_at(head: _Header) -> str:
+        if sheet:
+            return f"{label}: cell {column_letter(head.index)}1" + (f" ({head.text})" if head.text else "")
+        return f"{label}: row 1, column {head.text or head.index + 1}"
+
     if not body:
         report.at(
             -1, -1, label, "no material classes in the file", "expected a header row and one row per class"
         )
+    for k in (k for (m, k) in refused if m == 1):
+        report.at(-1, k, f"{label}: cell {column_letter(k)}1", *refused[1, k])
     for pos, (n, row) in enumerate(body):
+        for k in (k for (m, k) in refused if m == n):
+            padded[pos, k] = True
+            head = heads[k].stem
+            at = f"{label}: cell {column_letter(k)}{n}" + (f" ({head})" if head else "")
+            report.at(pos, k, at, *refused[n, k])
         extra = row[width:]
         if len(row) < width or any(cell.strip() for cell in extra):
             report.at(
@@ -93,11 +130,10 @@ def read_grid(records: list[list[str]], label: str, user: bool) -> tuple[pd.Data
     for head in heads:
         again = [claimed[col].text for col in head.targets if col in claimed]
         if again:
-            where = f"{label}: row 1, column {head.text}"
             report.at(
                 -1,
                 head.index,
-                where,
+                header_at(head),
                 f"header {head.text!r} repeats {again[0]!r}",
                 "expected each column once",
             )
@@ -105,7 +141,7 @@ def read_grid(records: list[list[str]], label: str, user: bool) -> tuple[pd.Data
         cover = head.targets or tuple(col for col in head.meant if col not in claimed)
         claimed |= {col: head for col in cover}
         column = cells[head.index] if len(body) else pd.Series([], dtype=object)
-        if not _header_ok(head, column, report, label, user):
+        if (1, head.index) in refused or not _header_ok(head, column, report, header_at(head), user):
             for col in cover:
                 skip[col][:] = True
             continue
@@ -159,9 +195,18 @@ def _unit_hint(name: str) -> str:
     return NUMERIC[targets[0]].stored if targets and targets[0] in NUMERIC else "GPa"
 
 
-def _header_ok(head: _Header, column: pd.Series, report: Report, label: str, user: bool) -> bool:
-    """Report what is wrong with a header; False when its column cannot be read."""
-    where = f"{label}: row 1, column {head.text or head.index + 1}"
+def column_letter(index: int) -> str:
+    """A spreadsheet's name for the column at 0-based ``index``: A … Z, AA, AB, …"""
+    letters = ""
+    index += 1
+    while index:
+        index, rest = divmod(index - 1, 26)
+        letters = chr(ord("A") + rest) + letters
+    return letters
+
+
+def _header_ok(head: _Header, column: pd.Series, report: Report, where: str, user: bool) -> bool:
+    """Report what is wrong with a header (at ``where``); False when its column cannot be read."""
 
     def bad(what: str, expected: str) -> bool:
         report.at(-1, head.index, where, what, expected)

@@ -49,9 +49,16 @@ class Where:
     names: Mapping[str, str]
     order: Mapping[str, int]
     noun: str
+    letters: Mapping[str, str] | None = None
+    """For a spreadsheet: each column's letter, so that a cell is named like ``B7``."""
+    numbers: tuple[int, ...] = ()
+    """For a spreadsheet: each row's number in the sheet."""
 
     def cell(self, pos: int, col: str) -> str:
-        return f"{self.label}: {self.rows[pos]}, {self.noun} {self.names.get(col, col)}"
+        name = self.names.get(col, col)
+        if self.letters is not None and col in self.letters:
+            return f"{self.label}: cell {self.letters[col]}{self.numbers[pos]} ({name})"
+        return f"{self.label}: {self.rows[pos]}, {self.noun} {name}"
 
 
 class Report:

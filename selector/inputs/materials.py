@@ -1,5 +1,4 @@
-"""Load, validate and merge materials tables: the built-in table plus user CSV or TOML files.
-
+"""Load, validate and merge materials tables: the built-in table plus user files.
 
 A table has one row per material class and the columns of
 :func:`selector.inputs.properties.data_columns`: text columns, a low and a high column per
@@ -7,7 +6,8 @@ property in its stored unit (NaN where the property does not apply or is unknown
 and the durability ratings as text ("" where unknown).
 
 Every reader checks the whole file and reports every problem at once: CSV and TOML
-files are read in :mod:`selector.inputs.material_files`, header rows with units in
+files are read in :mod:`selector.inputs.material_files`, .xlsx workbooks and .parquet
+files in :mod:`selector.inputs.material_sheets`, header rows with units in
 :mod:`selector.inputs.material_headers`, and the table checks and the report live in
 :mod:`selector.inputs.material_report`.
 """
@@ -24,11 +24,12 @@ import materials_db
 from selector.errors import DataFileError, InputError, Problem
 from selector.inputs.material_files import read_csv, read_toml
 from selector.inputs.material_report import ORDER, Report, Where, check_table, frame_columns
+from selector.inputs.material_sheets import PARQUET, XLSX, file_kind, read_parquet, read_xlsx, split_sheet
 from selector.inputs.properties import NOT_APPLICABLE, RATINGS, TEXT_COLUMNS, data_columns
 
 BUILTIN = "built-in"
 """The ``origin`` of rows from the built-in table."""
-_SUFFIXES = (".csv", ".toml")
+_SUFFIXES = (".csv", ".toml", XLSX, PARQUET)
 
 
 # ---------------------------------------------------------------------------- public API
@@ -42,11 +43,11 @@ def load_materials(files: Sequence[str | Path] = (), builtin: bool = True) -> pd
     columns of ``data_columns()`` and an ``origin`` column ("built-in" or the file name).
 
     Args:
-        files: user CSV or TOML files, applied in order.
+        files: user materials files (.csv, .toml, .xlsx or ``book.xlsx#Sheet``, .parquet), applied in order.
         builtin: start from the built-in table; with False, the user files alone.
 
     Raises:
-        InputError: no table to load, or a file that is neither .csv nor .toml.
+        InputError: no table to load, or a file of another type.
         DataFileError: listing every problem in every file.
     """
     paths = [Path(f) for f in ([files] if isinstance(files, str | Path) else files)]
@@ -69,10 +70,10 @@ def load_materials(files: Sequence[str | Path] = (), builtin: bool = True) -> pd
 
 
 def read_materials_file(path: str | Path) -> pd.DataFrame:
-    """One user materials file (CSV or TOML, by extension), checked and in stored units.
+    """One user materials file (CSV, TOML, .xlsx or .parquet, by extension), checked and in stored units.
 
     Raises:
-        InputError: the extension is neither .csv nor .toml.
+        InputError: the extension is not one of .csv, .toml, .xlsx, .parquet.
         DataFileError: listing every problem found in the file.
     """
     path = Path(path)
@@ -87,7 +88,7 @@ def check_materials_file(path: str | Path) -> list[Problem]:
     """Every problem in a user materials file; an empty list when it is clean.
 
     Raises:
-        InputError: the extension is neither .csv nor .toml.
+        InputError: the extension is not one of .csv, .toml, .xlsx, .parquet.
     """
     path = Path(path)
     _check_suffix(path)
@@ -125,15 +126,22 @@ def _merge(frames: list[pd.DataFrame]) -> pd.DataFrame:
 
 
 def _check_suffix(path: Path) -> None:
-    if path.suffix.lower() not in _SUFFIXES:
+    if file_kind(path) not in _SUFFIXES:
         raise InputError(
-            str(path), f"unsupported file type {path.suffix or '(none)'!r}", "expected a .csv or .toml file"
+            str(path),
+            f"unsupported file type {split_sheet(path)[0].suffix or '(none)'!r}",
+            "expected a .csv, .toml, .xlsx (optionally file.xlsx#Sheet) or .parquet file",
         )
 
 
 def _read_user(path: Path) -> tuple[pd.DataFrame, list[Problem]]:
-    if path.suffix.lower() == ".toml":
+    kind = file_kind(path)
+    if kind == ".toml":
         return read_toml(path, str(path))
+    if kind == XLSX:
+        return read_xlsx(path)
+    if kind == PARQUET:
+        return read_parquet(path)
     return read_csv(path, str(path), user=True)
 
 

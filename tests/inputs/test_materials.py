@@ -587,7 +587,11 @@ def test_row_level_problems(tmp_path: Path) -> None:
 @pytest.mark.parametrize(
     ("name", "content", "expected"),
     [
-        ("gone.csv", None, "file not found; expected the path of a .csv or .toml materials file"),
+        (
+            "gone.csv",
+            None,
+            "file not found; expected the path of a materials file (.csv, .toml, .xlsx or .parquet)",
+        ),
         ("empty.csv", b"", "no header row; expected a first row naming the columns"),
         (
             "head.csv",
@@ -683,11 +687,14 @@ def test_nothing_to_load_and_wrong_types(tmp_path: Path) -> None:
     with pytest.raises(InputError) as info:
         load_materials([], builtin=False)
     assert str(info.value) == "materials: no table to load; expected builtin=True or at least one file"
-    sheet = tmp_path / "table.xlsx"
+    sheet = tmp_path / "table.ods"
     for call in (load_materials, read_materials_file, check_materials_file):
         with pytest.raises(InputError) as info:
             call([sheet] if call is load_materials else sheet)
-        assert str(info.value) == f"{sheet}: unsupported file type '.xlsx'; expected a .csv or .toml file"
+        assert str(info.value) == (
+            f"{sheet}: unsupported file type '.ods'; expected a .csv, .toml, .xlsx "
+            "(optionally file.xlsx#Sheet) or .parquet file"
+        )
 
 
 # ---------------------------------------------------------------------------- validate_table
