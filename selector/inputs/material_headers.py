@@ -109,8 +109,8 @@ def read_grid(
     for pos, (n, row) in enumerate(body):
         for k in (k for (m, k) in refused if m == n):
             padded[pos, k] = True
-            head = heads[k].stem
-            at = f"{label}: cell {column_letter(k)}{n}" + (f" ({head})" if head else "")
+            stem = heads[k].stem
+            at = f"{label}: cell {column_letter(k)}{n}" + (f" ({stem})" if stem else "")
             report.at(pos, k, at, *refused[n, k])
         extra = row[width:]
         if len(row) < width or any(cell.strip() for cell in extra):
