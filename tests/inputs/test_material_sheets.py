@@ -278,7 +278,8 @@ def test_the_cli_checks_a_workbook_and_ranks_with_it(tmp_path):
 
 @settings(max_examples=15, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture])
 @given(
-    low=st.floats(min_value=0.01, max_value=500, allow_nan=False),
+    # kept inside the plausible modulus band (1e-5 to 1200 GPa) so only the reader is tested
+    low=st.floats(min_value=0.01, max_value=400, allow_nan=False),
     spread=st.floats(min_value=1.0, max_value=3.0),
     as_text=st.booleans(),
 )
