@@ -80,6 +80,9 @@ class SectionSpec(_Strict):
     tf: str | None = None
     tw: str | None = None
     min_wall: str | None = None  # the thinnest wall or plate allowed (product forms set their own too)
+    max_depth: str | None = None  # bounds on the sized part (see pipeline/bounds.py)
+    max_width: str | None = None
+    max_diameter: str | None = None
 
     @property
     def dims(self) -> dict[str, str]:

@@ -469,11 +469,14 @@ def sandwich_loads(
 
     def length(name: str) -> float | None:
         text = getattr(options, name, None) if options is not None else None
+        where = f"sandwich.{name}"
+        if text is None and name == "max_depth":  # one meaning: the overall depth, given in either table
+            text, where = spec.section.max_depth, "section.max_depth"
         if text is None:
             return None
-        value = magnitude_in(text, "m", f"sandwich.{name}")
+        value = magnitude_in(text, "m", where)
         if not (math.isfinite(value) and value > 0):
-            raise InputError(f"sandwich.{name}", f"{text!r} must be above zero", "a positive length")
+            raise InputError(where, f"{text!r} must be above zero", "a positive length")
         return value
 
     return SandwichLoads(

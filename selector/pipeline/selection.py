@@ -18,6 +18,7 @@ from selector.mechanics.objectives import OBJECTIVE_UNITS
 from selector.mechanics.stress_states import stress_state
 from selector.pipeline import failure_limits as fl
 from selector.pipeline.applicability import reject_for_stress_state
+from selector.pipeline.bounds import BOUND_FIELDS, bound_reasons, check_bounds
 from selector.pipeline.derive import Derivation, derive_for_case
 from selector.pipeline.rank import monomial_index, rank_by_index, rank_by_value, rerank_by_index
 from selector.pipeline.robust import RobustResult, robustness
@@ -185,8 +186,20 @@ def _limits(spec: Spec) -> dict[str, dict[str, float]]:
     return limits
 
 
+SHAPES_OF_FUNCTION = {"panel": ("rectangle", "sandwich")}
+"""Shapes a function without a sized cross-section takes (plates, vessels and springs take none)."""
+SIZED_BY = {"plate": "thickness", "cylinder": "wall", "sphere": "wall", "spring": "volume"}
+
+
 def _check_section(fn: str, shape: str, free: str) -> None:
     """Refuse shape and free-variable pairs the sizing cannot honour."""
+    if fn not in SECTION_FUNCTIONS and shape not in ("generic", *SHAPES_OF_FUNCTION.get(fn, ())):
+        uses = SHAPES_OF_FUNCTION.get(fn)
+        raise InputError(
+            "section.shape",
+            f"a {fn} does not use shape = {shape!r}",
+            f"one of: {', '.join(uses)}" if uses else f"no shape: a {fn} is sized by its {SIZED_BY[fn]}",
+        )
     if fn not in SECTION_FUNCTIONS or (free == "none" and shape == "generic"):
         return
     if shape not in SIZABLE_SHAPES:
@@ -234,6 +247,12 @@ def design_of(spec: Spec, shape: str) -> Design:
         text = spec.section.min_wall
         where = "section.min_wall"
         values["t_min"] = check_range(magnitude_in(text, "m", where), "m", where, text)
+    bounds = {
+        name: check_range(magnitude_in(text, "m", f"section.{name}"), "m", f"section.{name}", text)
+        for name in BOUND_FIELDS
+        if (text := getattr(spec.section, name)) is not None
+    }
+    check_bounds(spec.part.function, shape, bounds)
     implicit, sf_from = IMPLICIT_CONSTRAINTS.get(spec.part.function, (None, None))
     if implicit is not None:  # checked on every part, with the safety factor of ``sf_from``
         limits[implicit] = {"SF": limits.get(sf_from, {}).get("SF", 1.0)}
@@ -281,7 +300,7 @@ def design_of(spec: Spec, shape: str) -> Design:
                 f"'none' checks a given part, but {names} is not given",
                 "every dimension of the part",
             )
-    return Design(values, limits, shape, dims, free)
+    return Design(values, limits, shape, dims, free, bounds=bounds)
 
 
 SHAPE_CONSTANT = {"k_I": "bending_stiffness", "k_Imin": "bending_stiffness", "k_Z": "bending_strength"}
@@ -519,6 +538,8 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
     sized = size_parts(table[alive], derivations, design)
     table = pd.concat([table, sized.reindex(table.index)], axis=1)
     table["feasible"] = table["feasible"].eq(True)
+    if design.bounds:
+        table = _reject_out_of_bounds(table, design, spec.part.function)
     unsized = alive & ~table["feasible"]
     table.loc[unsized, "status"] = REJECTED
     table.loc[unsized, "reasons"] = pd.Series(
@@ -554,6 +575,18 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
     )
 
 
+def _reject_out_of_bounds(table: pd.DataFrame, design: Design, fn: str) -> pd.DataFrame:
+    """The table with every sized part that exceeds a ``[section]`` bound made infeasible, with why."""
+    table = table.copy()
+    radius = design.values.get("r", 0.0)
+    for i in table.index[table["feasible"]]:
+        why = bound_reasons(fn, design.shape, design.bounds, table.at[i, "dimensions"], radius)
+        if why:
+            table.at[i, "feasible"] = False
+            table.at[i, "size_warnings"] = [*table.at[i, "size_warnings"], *why]
+    return table
+
+
 def _select_sandwich(spec: Spec, materials: pd.DataFrame, conservative: bool, index: str | None) -> Selection:
     """Face × core pairs for a sandwich spec, beside the best solid part sized for the same loads."""
     from selector.inputs.spec import SectionSpec
@@ -578,8 +611,20 @@ def _select_sandwich(spec: Spec, materials: pd.DataFrame, conservative: bool, in
         raise InputError(
             f"section.{extra[0]}", "a sandwich's thicknesses are found, not given", "only the width b"
         )
+    for name in ("max_width", "max_diameter"):
+        if getattr(section, name) is not None:
+            raise InputError(f"section.{name}", f"a sandwich does not take {name}", "max_depth only")
+    if section.max_depth is not None and spec.sandwich is not None and spec.sandwich.max_depth is not None:
+        raise InputError(
+            "section.max_depth",
+            "max_depth is given in both [section] and [sandwich]",
+            "the overall depth bound once",
+        )
     width = section.b if fn == "beam" else None
-    solid_section = SectionSpec(shape="rectangle", free="thickness" if fn == "panel" else "depth", b=width)
+    max_depth = section.max_depth or (spec.sandwich.max_depth if spec.sandwich is not None else None)
+    solid_section = SectionSpec(
+        shape="rectangle", free="thickness" if fn == "panel" else "depth", b=width, max_depth=max_depth
+    )
     solid = select(
         spec.model_copy(update={"section": solid_section, "sandwich": None}), materials, conservative, index
     )

@@ -16,7 +16,7 @@ from __future__ import annotations
 import functools
 import math
 from collections.abc import Mapping
-from dataclasses import dataclass, replace
+from dataclasses import dataclass, field, replace
 
 import numpy as np
 import pandas as pd
@@ -118,6 +118,7 @@ class Design:
     dims: dict[str, float]  # reference dimensions [m]
     free: str
     ends: str = "typical"  # "typical" (geometric mean of each range) or "unfavourable" (--conservative)
+    bounds: dict[str, float] = field(default_factory=dict)  # max_depth, max_width, max_diameter [m]
 
 
 def missing_inputs(derivations: list[Derivation], design: Design) -> list[str]:
