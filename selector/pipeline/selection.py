@@ -144,6 +144,23 @@ class Selection:
     def rejected(self) -> pd.DataFrame:
         return self.table[self.table["rank"].isna()].reset_index(drop=True)
 
+    # The two methods below are for notebooks. They import ``selector.outputs.notebook``
+    # when called: the one place the pipeline reaches an output (tests/test_layout.py,
+    # NOTEBOOK_HOOKS), lazily, so the pipeline never loads outputs on import.
+
+    def _repr_html_(self) -> str:
+        """The top of the shortlist, what governs and the caution, for Jupyter."""
+        from selector.outputs.notebook import selection_html
+
+        return selection_html(self)
+
+    def chart(self, x: str | None = None, y: str | None = None, **options: object):
+        """A plotly figure of this Selection: properties ``x`` against ``y`` (the index's axes
+        by default; the face × core pairs for a sandwich); ``options`` as ``chart_for_selection``."""
+        from selector.outputs.notebook import selection_chart
+
+        return selection_chart(self, x, y, **options)
+
 
 SECTION_FUNCTIONS = ("tie", "beam", "column", "shaft")
 """Functions sized through a cross-section shape; the others size a wall, a plate or a volume."""
