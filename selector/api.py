@@ -4,11 +4,14 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from pathlib import Path
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from selector.errors import OutputError
 from selector.inputs.spec import DEMO_SPEC, EXAMPLES
 from selector.outputs.files import check_output
+
+if TYPE_CHECKING:
+    from selector.pipeline.selection import Selection
 
 
 def run_spec(
@@ -20,7 +23,7 @@ def run_spec(
     protect: Sequence[str | Path] = (),
     output: str | Path | None = None,
     **studies: Any,
-):
+) -> Selection:
     """Load a spec and its materials, run the pipeline, return the Selection.
 
     ``studies`` are passed to ``select`` (robust, tradeoff, exchange, seed, distribution, sensitivity).
@@ -38,7 +41,7 @@ def run_spec(
     return select(spec, table, conservative=conservative, index=index, **studies)
 
 
-def run_demo(out_dir: Path, robust_draws: int | None = None):
+def run_demo(out_dir: Path, robust_draws: int | None = None) -> tuple[Selection, list[Path]]:
     """Run the bundled demo spec and write its files into ``out_dir``.
 
     Writes ``shortlist.csv``, the property chart ``chart.html`` and the HTML report

@@ -7,12 +7,15 @@ from __future__ import annotations
 
 import sys
 from pathlib import Path
-from typing import IO, Any
+from typing import IO, TYPE_CHECKING, Any
 
 import click
 
 from selector import __version__
 from selector.inputs.properties import FAMILIES
+
+if TYPE_CHECKING:
+    from selector.pipeline.selection import Selection
 
 FORMATS = ("table", "csv", "json", "md")
 format_option = click.option(
@@ -26,10 +29,11 @@ units_option = click.option(
 class UserInputError(click.ClickException):
     """A library ``SelectorError`` as click shows it: ``error: ...`` on stderr, one line per problem."""
 
-    def __init__(self, error: Exception, exit_code: int = 2) -> None:
+    exit_code = 2  # as ``SelectorError.exit_code``: a usage error
+
+    def __init__(self, error: Exception) -> None:
         super().__init__(str(error))
         self.messages = [str(e) for e in getattr(error, "errors", (error,))]
-        self.exit_code = exit_code
 
     def show(self, file: IO[Any] | None = None) -> None:
         for message in self.messages:
@@ -45,7 +49,7 @@ class SelectorGroup(click.Group):
         try:
             return super().invoke(ctx)
         except SelectorError as exc:
-            raise UserInputError(exc, exc.exit_code) from exc
+            raise UserInputError(exc) from exc
 
 
 def _emit(text: str, output: str | None) -> None:
@@ -80,7 +84,14 @@ def materials() -> None:
 @click.option("--no-builtin", is_flag=True, help="Leave out the built-in table.")
 @format_option
 @units_option
-def materials_list(family, search, files, no_builtin, fmt, units) -> None:
+def materials_list(
+    family: tuple[str, ...],
+    search: str | None,
+    files: tuple[str, ...],
+    no_builtin: bool,
+    fmt: str | None,
+    units: str | None,
+) -> None:
     """List the material classes."""
     from selector.inputs.materials import load_materials
     from selector.outputs import tables
@@ -98,7 +109,7 @@ def materials_list(family, search, files, no_builtin, fmt, units) -> None:
 @click.option("--materials", "files", multiple=True, type=click.Path(), help="Add a materials file.")
 @format_option
 @units_option
-def materials_show(class_id, files, fmt, units) -> None:
+def materials_show(class_id: str, files: tuple[str, ...], fmt: str | None, units: str | None) -> None:
     """Show every property of one class."""
     from selector.inputs.materials import load_materials
     from selector.outputs import tables
@@ -110,7 +121,7 @@ def materials_show(class_id, files, fmt, units) -> None:
 @materials.command("check")
 @click.argument("file", type=click.Path())
 @format_option
-def materials_check(file, fmt) -> None:
+def materials_check(file: str, fmt: str | None) -> None:
     """Check a materials file; list every problem (exit 2 if any)."""
     import json
 
@@ -150,7 +161,17 @@ def materials_check(file, fmt) -> None:
     help="Fatigue: R = min load / max load.",
 )
 @format_option
-def derive(function, objective, constraint, free, support, load, criterion, load_ratio, fmt) -> None:
+def derive(
+    function: str,
+    objective: str,
+    constraint: str,
+    free: str,
+    support: str | None,
+    load: str | None,
+    criterion: str | None,
+    load_ratio: float,
+    fmt: str | None,
+) -> None:
     """Derive the merit index for FUNCTION and show the steps."""
     from selector.outputs import tables
     from selector.pipeline.derive import derive as run
@@ -190,21 +211,21 @@ def derive(function, objective, constraint, free, support, load, criterion, load
     "-o", "--output", type=click.Path(), default=None, help="Write to FILE (format from extension)."
 )
 def rank(
-    spec,
-    files,
-    no_builtin,
-    conservative,
-    expression,
-    top,
-    show_all,
-    other,
-    exchange,
-    draws,
-    seed,
-    distribution,
-    fmt,
-    units,
-    output,
+    spec: str,
+    files: tuple[str, ...],
+    no_builtin: bool,
+    conservative: bool,
+    expression: str | None,
+    top: int | None,
+    show_all: bool,
+    other: str | None,
+    exchange: str | None,
+    draws: int | None,
+    seed: int | None,
+    distribution: str,
+    fmt: str | None,
+    units: str | None,
+    output: str | None,
 ) -> None:
     """Screen, derive, size and rank the classes for a SPEC file.
 
@@ -272,7 +293,7 @@ def rank(
     _emit(tables.render_selection(selection, fmt, units, top, show_all), output)
 
 
-def _studies(selection, fmt) -> str:
+def _studies(selection: Selection, fmt: str) -> str:
     """Text of the trade-off and robustness studies the Selection carries (JSON: one object)."""
     import json
 
@@ -304,7 +325,7 @@ def _studies(selection, fmt) -> str:
 
 @cli.command()
 @click.option("--out", "out_dir", type=click.Path(), default="selector-demo", show_default=True)
-def demo(out_dir) -> None:
+def demo(out_dir: str) -> None:
     """Run a bundled example end to end and write its files."""
     from selector.api import run_demo
     from selector.outputs import tables
@@ -320,7 +341,7 @@ def demo(out_dir) -> None:
 @click.argument("dims", nargs=-1)
 @format_option
 @units_option
-def section(shape, dims, fmt, units) -> None:
+def section(shape: str, dims: tuple[str, ...], fmt: str | None, units: str | None) -> None:
     """Properties of a cross-section: SHAPE DIM=VALUE ... (e.g. i-section b=100mm h=200mm tf=10mm tw=6mm)."""
     from selector.inputs.spec import parse_dimension_args
     from selector.mechanics.sections import build_section
@@ -344,7 +365,18 @@ def section(shape, dims, fmt, units) -> None:
 @units_option
 @click.option("-o", "--output", type=click.Path(), required=True, help="chart.html, .png, .svg or .pdf")
 def chart(
-    x_axis, y_axis, spec, index, through, at_value, top, title, files, no_builtin, units, output
+    x_axis: str | None,
+    y_axis: str | None,
+    spec: str | None,
+    index: str | None,
+    through: str | None,
+    at_value: float | None,
+    top: int,
+    title: str | None,
+    files: tuple[str, ...],
+    no_builtin: bool,
+    units: str | None,
+    output: str,
 ) -> None:
     """Draw a property chart: every class as a box, with index lines, screens and shortlist."""
     from selector.outputs.charts import chart_for_selection, property_chart, write_chart
@@ -396,7 +428,15 @@ def chart(
     show_default=True,
     help="The report file (.html).",
 )
-def report(spec, files, no_builtin, units, draws, seed, output) -> None:
+def report(
+    spec: str,
+    files: tuple[str, ...],
+    no_builtin: bool,
+    units: str | None,
+    draws: int,
+    seed: int | None,
+    output: str,
+) -> None:
     """Write a self-contained HTML design report for a SPEC file (opens offline, prints cleanly)."""
     from selector.api import report_from_spec
 
@@ -414,7 +454,7 @@ def report(spec, files, no_builtin, units, draws, seed, output) -> None:
     help="Port on 127.0.0.1 (0: any free port).",
 )
 @click.option("--no-browser", is_flag=True, help="Do not open the default web browser.")
-def explore(spec, port, no_browser) -> None:
+def explore(spec: str | None, port: int, no_browser: bool) -> None:
     """Explore a SPEC in a local web page on 127.0.0.1 (a bundled example without SPEC)."""
     from selector.outputs import explore as explorer
 

@@ -507,7 +507,7 @@ _CALLS: dict[str, Callable[..., np.ndarray]] = {
 def _evaluate(node: Node, arrays: Mapping[str, np.ndarray]) -> np.ndarray:
     match node:
         case Number(value):
-            return np.float64(value)
+            return np.asarray(value, dtype=float)
         case Symbol(name):
             return arrays[name]
         case Negate(operand):
@@ -576,7 +576,7 @@ def _power(base: Interval, exponent: Interval, constant: float | None) -> Interv
 def _interval(node: Node, bounds: Mapping[str, Interval]) -> Interval:
     match node:
         case Number(value):
-            return np.float64(value), np.float64(value)
+            return np.asarray(value, dtype=float), np.asarray(value, dtype=float)
         case Symbol(name):
             return bounds[name]
         case Negate(operand):

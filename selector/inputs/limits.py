@@ -101,8 +101,9 @@ def shown(value: object, width: int = 40) -> str:
     return text if len(text) <= width else f"{text[: width - 11]}… ({len(text)} characters)"
 
 
-def finite_float(value: int | float) -> float | None:
-    """``float(value)``, or None when it overflows or is not finite (e.g. a 400-digit integer)."""
+def finite_float(value: str | int | float) -> float | None:
+    """``float(value)`` of a number or number text, or None when it overflows or is not finite
+    (e.g. a 400-digit integer)."""
     try:
         number = float(value)
     except OverflowError:

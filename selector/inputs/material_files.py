@@ -139,7 +139,8 @@ def _toml_class(
     """Fill one row from one [[class]] table."""
 
     def bad(field: str, what: str, expected: str) -> None:
-        order = ORDER.get(field, ORDER.get(PROPERTIES[field].low) if field in PROPERTIES else len(COLUMNS))
+        fallback = ORDER.get(PROPERTIES[field].low, len(COLUMNS)) if field in PROPERTIES else len(COLUMNS)
+        order = ORDER.get(field, fallback)
         report.at(
             pos, order, f"{report.where.label}: {report.where.rows[pos]}, field {field}", what, expected
         )

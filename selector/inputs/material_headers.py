@@ -299,10 +299,10 @@ def _number_cells(
         )
     else:
         expected = f"expected a number{unit_words}, or '{NOT_APPLICABLE}' if it does not apply"
-    for pos in np.flatnonzero(text):
+    for pos in np.flatnonzero(text).tolist():
         report.cell(pos, col, f"{column.iat[pos]!r} is not a number", expected)
     bad_na = na & prop.core
-    for pos in np.flatnonzero(bad_na):
+    for pos in np.flatnonzero(bad_na).tolist():
         report.cell(
             pos,
             col,
@@ -310,7 +310,7 @@ def _number_cells(
             f"expected a number{unit_words}",
         )
     bad_empty = empty & ~padded & (prop.core or not user)
-    for pos in np.flatnonzero(bad_empty):
+    for pos in np.flatnonzero(bad_empty).tolist():
         report.cell(pos, col, "empty cell", expected)
     if head.unit is not None and not _same_unit(head.unit, prop.stored):
         with np.errstate(all="ignore"):

@@ -100,7 +100,7 @@ def check_table(table: pd.DataFrame, skip: pd.DataFrame, report: Report) -> None
         for col in (prop.low, prop.high):
             _check_values(values[col], given[col], col, prop, report)
         lo, hi = values[prop.low], values[prop.high]
-        for pos in np.flatnonzero(np.isfinite(lo) & np.isfinite(hi) & (lo > hi)):
+        for pos in np.flatnonzero(np.isfinite(lo) & np.isfinite(hi) & (lo > hi)).tolist():
             report.cell(
                 pos,
                 prop.low,
@@ -128,14 +128,14 @@ def check_table(table: pd.DataFrame, skip: pd.DataFrame, report: Report) -> None
 
 
 def _check_ids(ids: pd.Series, skip: np.ndarray, report: Report) -> None:
-    for pos in np.flatnonzero(ids.eq("").to_numpy() & ~skip):
+    for pos in np.flatnonzero(ids.eq("").to_numpy() & ~skip).tolist():
         report.cell(
             pos, "id", "id is missing", "expected a short name unique in the file, e.g. 'steel-carbon'"
         )
     repeat = (ids.duplicated(keep="first") & ids.ne("")).to_numpy()
     if repeat.any():
         first = pd.Series(np.arange(len(ids))).groupby(ids.to_numpy()).transform("min").to_numpy()
-        for pos in np.flatnonzero(repeat):
+        for pos in np.flatnonzero(repeat).tolist():
             report.cell(
                 pos,
                 "id",
@@ -148,9 +148,9 @@ def _check_words(table: pd.DataFrame, skip: pd.DataFrame, report: Report) -> Non
     """Families and ratings: words from fixed lists."""
     family = table["family"]
     asked = ~skip["family"].to_numpy()
-    for pos in np.flatnonzero(family.eq("").to_numpy() & asked):
+    for pos in np.flatnonzero(family.eq("").to_numpy() & asked).tolist():
         report.cell(pos, "family", "family is missing", f"expected one of: {', '.join(FAMILIES)}")
-    for pos in np.flatnonzero((family.ne("") & ~family.isin(FAMILIES)).to_numpy() & asked):
+    for pos in np.flatnonzero((family.ne("") & ~family.isin(FAMILIES)).to_numpy() & asked).tolist():
         report.cell(
             pos,
             "family",
@@ -160,7 +160,7 @@ def _check_words(table: pd.DataFrame, skip: pd.DataFrame, report: Report) -> Non
     for rating in RATINGS:
         word = table[rating]
         asked = ~skip[rating].to_numpy()
-        for pos in np.flatnonzero((word.ne("") & ~word.isin(RATING_LEVELS)).to_numpy() & asked):
+        for pos in np.flatnonzero((word.ne("") & ~word.isin(RATING_LEVELS)).to_numpy() & asked).tolist():
             report.cell(
                 pos,
                 rating,
@@ -173,28 +173,28 @@ def _check_values(v: np.ndarray, given: np.ndarray, col: str, prop: Property, re
     """One number column: required, finite, positive, within the sanity bounds."""
     nan = np.isnan(v)
     if prop.symbol in REQUIRED:
-        for pos in np.flatnonzero(nan & given):
+        for pos in np.flatnonzero(nan & given).tolist():
             report.cell(
                 pos, col, "no value", f"expected {prop.name} in {prop.stored}; it is required for every class"
             )
     infinite = np.isinf(v)
-    for pos in np.flatnonzero(infinite):
+    for pos in np.flatnonzero(infinite).tolist():
         report.cell(
             pos, col, f"{float(v[pos])!r} is not a finite number", f"expected a number in {prop.stored}"
         )
     finite = ~nan & ~infinite
     bad_sign = finite & (v <= 0) if prop.positive else np.zeros_like(finite)
-    for pos in np.flatnonzero(bad_sign):
+    for pos in np.flatnonzero(bad_sign).tolist():
         report.cell(pos, col, f"{_fmt(v[pos], prop)} is not positive", f"expected {prop.name} above 0")
     span = f"between {_fmt(prop.lower, prop)} and {_fmt(prop.upper, prop)}; check the value and its unit"
-    for pos in np.flatnonzero(finite & ~bad_sign & (v < prop.lower)):
+    for pos in np.flatnonzero(finite & ~bad_sign & (v < prop.lower)).tolist():
         report.cell(
             pos,
             col,
             f"{_fmt(v[pos], prop)} is below the plausible minimum {_fmt(prop.lower, prop)}",
             f"expected {prop.name} {span}",
         )
-    for pos in np.flatnonzero(finite & (v > prop.upper)):
+    for pos in np.flatnonzero(finite & (v > prop.upper)).tolist():
         report.cell(
             pos,
             col,
@@ -210,7 +210,7 @@ def _check_order(
     a, b = values[small], values[big]
     prop = NUMERIC[small]
     other = big if at == small else small
-    for pos in np.flatnonzero(np.isfinite(a) & np.isfinite(b) & (a > b)):
+    for pos in np.flatnonzero(np.isfinite(a) & np.isfinite(b) & (a > b)).tolist():
         shown = {small: a[pos], big: b[pos]}
         report.cell(
             pos,
@@ -225,7 +225,7 @@ def frame_columns(df: pd.DataFrame, report: Report) -> tuple[pd.DataFrame, pd.Da
     n = len(df)
     label = report.where.label
     repeated = df.columns.duplicated()
-    for k in np.flatnonzero(repeated):
+    for k in np.flatnonzero(repeated).tolist():
         col = df.columns[k]
         report.at(
             -1, k, f"{label}: column {col}", f"column {col!r} appears again", "expected each column once"
@@ -257,7 +257,7 @@ def frame_columns(df: pd.DataFrame, report: Report) -> tuple[pd.DataFrame, pd.Da
             raw = df[col] if present else pd.Series(np.nan, index=range(n))
             number = pd.to_numeric(raw, errors="coerce").astype(float)
             wrong = (number.isna() & raw.notna()).to_numpy()
-            for pos in np.flatnonzero(wrong):
+            for pos in np.flatnonzero(wrong).tolist():
                 report.cell(
                     pos,
                     col,

@@ -71,7 +71,7 @@ class Property:
         return typical_value(low, high, self.log)
 
 
-def _p(*args, **kwargs) -> Property:
+def _p(*args: Any, **kwargs: Any) -> Property:
     return Property(*args, **kwargs)
 
 

@@ -31,7 +31,7 @@ def registry() -> pint.UnitRegistry:
     """The project's pint registry (built once; about 0.2 s)."""
     import pint
 
-    ureg = pint.UnitRegistry(cache_folder=":auto:", autoconvert_offset_to_baseunit=True)
+    ureg: pint.UnitRegistry = pint.UnitRegistry(cache_folder=":auto:", autoconvert_offset_to_baseunit=True)
     for definition in _EXTRA_UNITS:
         ureg.define(definition)
     return ureg

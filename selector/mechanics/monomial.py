@@ -11,6 +11,10 @@ import math
 from collections.abc import Iterable, Mapping
 from dataclasses import dataclass
 from fractions import Fraction
+from typing import TYPE_CHECKING
+
+if TYPE_CHECKING:
+    import numpy as np
 
 Exponent = Fraction
 
@@ -99,11 +103,11 @@ class Monomial:
         _, rest = self.split([name])
         return rest * value**power if power else self
 
-    def evaluate(self, values: Mapping[str, object]) -> object:
+    def evaluate(self, values: Mapping[str, float | np.ndarray]) -> float | np.ndarray:
         """Numeric value; ``values`` may hold floats or numpy arrays (broadcast)."""
-        result: object = self.coef
+        result: float | np.ndarray = self.coef
         for name, power in self.powers:
-            result = result * values[name] ** float(power)  # type: ignore[operator]
+            result = result * values[name] ** float(power)
         return result
 
     def __str__(self) -> str:

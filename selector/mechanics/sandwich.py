@@ -27,11 +27,15 @@ indentation of the core governs.
 
 from __future__ import annotations
 
+from collections.abc import Mapping
 from dataclasses import dataclass
 
 import numpy as np
 
 from selector.mechanics.loadcases import BEAM_CONSTANTS
+
+Value = float | np.ndarray
+"""One number, or an array of them (one per pair), in SI units."""
 
 MODES = ("stiffness", "face-yield", "face-wrinkling", "core-shear")
 """The failure modes of a sandwich, in the order they are reported."""
@@ -105,7 +109,7 @@ def sandwich_case(support: str, load: str) -> SandwichCase:
     return SandwichCase(support, load, b1, b2, c_moment, c_shear)
 
 
-def flexural_rigidity(E_f, E_c, b, t_f, t_c):
+def flexural_rigidity(E_f: Value, E_c: Value, b: Value, t_f: Value, t_c: Value) -> Value:
     """D [N·m²]: the faces about the centre line, their own bending, and the core's (E_c in-plane).
 
     The sizing passes E_c = 0 (antiplane core); the full form is for checks.
@@ -114,13 +118,23 @@ def flexural_rigidity(E_f, E_c, b, t_f, t_c):
     return E_f * b * (t_f * d**2 / 2 + t_f**3 / 6) + E_c * b * t_c**3 / 12
 
 
-def shear_stiffness(G_c, b, t_f, t_c):
+def shear_stiffness(G_c: Value, b: Value, t_f: Value, t_c: Value) -> Value:
     """S = G_c·b·d²/t_c [N]: the core's shear stiffness (Allen's thin-face form)."""
     d = t_c + t_f
     return G_c * b * d**2 / t_c
 
 
-def deflection_parts(case: SandwichCase, F, L, E_f, E_c, G_c, b, t_f, t_c):
+def deflection_parts(
+    case: SandwichCase,
+    F: Value,
+    L: Value,
+    E_f: Value,
+    E_c: Value,
+    G_c: Value,
+    b: Value,
+    t_f: Value,
+    t_c: Value,
+) -> tuple[Value, Value]:
     """(bending, shear) deflection [m] of the loaded point for the total load F [N]."""
     bending = F * L**3 / (case.b1 * flexural_rigidity(E_f, E_c, b, t_f, t_c))
     with np.errstate(divide="ignore"):
@@ -128,24 +142,33 @@ def deflection_parts(case: SandwichCase, F, L, E_f, E_c, G_c, b, t_f, t_c):
     return bending, shear
 
 
-def face_stress(case: SandwichCase, F, L, E_f, E_c, b, t_f, t_c):
+def face_stress(
+    case: SandwichCase, F: Value, L: Value, E_f: Value, E_c: Value, b: Value, t_f: Value, t_c: Value
+) -> Value:
     """Peak face stress [Pa] at the outer fibre: M·E_f·h/(2·D), → M/(b·t_f·d) for thin faces."""
     moment = F * L / case.c_moment
     h = t_c + 2 * t_f
     return moment * E_f * h / (2 * flexural_rigidity(E_f, E_c, b, t_f, t_c))
 
 
-def wrinkling_stress(E_f, E_c, G_c):
+def wrinkling_stress(E_f: Value, E_c: Value, G_c: Value) -> Value:
     """Compressive face stress [Pa] at which the face wrinkles into the core."""
     return WRINKLING_COEFFICIENT * np.cbrt(E_f * E_c * G_c)
 
 
-def core_shear_stress(case: SandwichCase, F, b, t_f, t_c):
+def core_shear_stress(case: SandwichCase, F: Value, b: Value, t_f: Value, t_c: Value) -> Value:
     """Core shear stress [Pa]: V/(b·d), uniform through an antiplane core."""
     return F / case.c_shear / (b * (t_c + t_f))
 
 
-def utilisations(case: SandwichCase, loads: dict, faces: dict, cores: dict, t_f, t_c) -> dict:
+def utilisations(
+    case: SandwichCase,
+    loads: Mapping[str, Value],
+    faces: Mapping[str, Value],
+    cores: Mapping[str, Value],
+    t_f: Value,
+    t_c: Value,
+) -> dict[str, Value]:
     """Each mode's utilisation (1 at the limit) for thicknesses t_f, t_c [m].
 
     Args:
@@ -176,7 +199,14 @@ def validity_warnings(t_f: float, t_c: float) -> list[str]:
     return []
 
 
-def max_utilisation(case: SandwichCase, loads: dict, faces: dict, cores: dict, t_f, t_c):
+def max_utilisation(
+    case: SandwichCase,
+    loads: Mapping[str, Value],
+    faces: Mapping[str, Value],
+    cores: Mapping[str, Value],
+    t_f: Value,
+    t_c: Value,
+) -> np.ndarray:
     """The largest of the four utilisations of ``utilisations``, in one pass (the search's inner loop).
 
     D is formed once and the two face modes share one stress, so this is several times faster

@@ -67,7 +67,9 @@ def spec_rows(selection: Any) -> list[tuple[str, str, Any]]:
     return rows
 
 
-def _sheet(workbook: Any, title: str, header: list[str], rows: list[list[Any]], wrap: tuple[str, ...] = ()):
+def _sheet(
+    workbook: Any, title: str, header: list[str], rows: list[list[Any]], wrap: tuple[str, ...] = ()
+) -> Any:
     """Add a sheet: bold frozen header, numbers as numbers, column widths from the content."""
     from openpyxl.styles import Alignment, Font
     from openpyxl.utils import get_column_letter

@@ -234,7 +234,8 @@ def render_derivation(d: Any, fmt: str) -> str:
 
 def index_unit(exponents: dict[str, float]) -> str:
     """Unit of an index computed in stored units, e.g. ``GPa^0.5/(kg/m³)``."""
-    up, down = [], []
+    up: list[str] = []
+    down: list[str] = []
     for s, p in exponents.items():
         label = property_of(s).label
         label = f"({label})" if ("/" in label or "·" in label or " " in label) else label

@@ -8,6 +8,7 @@ index is the inverse of the material factor, normalised. Nothing is looked up.
 from __future__ import annotations
 
 import math
+from collections.abc import Callable
 from dataclasses import dataclass, replace
 from fractions import Fraction
 
@@ -294,7 +295,15 @@ def _in_free_variable(m: M, geo: Geometry) -> M:
     return m
 
 
-def _screen(case, constraint, objective, geo, limit, head, tex) -> Derivation:
+def _screen(
+    case: LoadCase,
+    constraint: str,
+    objective: str,
+    geo: Geometry,
+    limit: M,
+    head: tuple[str, ...],
+    tex: Callable[[M], str],
+) -> Derivation:
     """A constraint free of the free variable: M ≥ threshold, a check on the class."""
     material, rest = limit.split(PROPERTY_SYMBOLS)
     index = normalise(material**-1)
@@ -319,7 +328,7 @@ def _screen(case, constraint, objective, geo, limit, head, tex) -> Derivation:
     )
 
 
-def _leak_before_break(d: Derivation, tex) -> Derivation:
+def _leak_before_break(d: Derivation, tex: Callable[[M], str]) -> Derivation:
     """The leak-before-break index: the wall at yield, then the largest safe pressure."""
     case, geo = d.case, d.geometry
     at_yield = _in_free_variable(case.utilisation["strength"], geo).solve_for(geo.symbol, M.of(1))

@@ -7,7 +7,7 @@ lowest natural frequency, and the effective span of a plate's first mode.
 
 from __future__ import annotations
 
-from collections.abc import Iterable, Mapping
+from collections.abc import Callable, Iterable, Mapping
 from typing import Any
 
 import numpy as np
@@ -92,7 +92,7 @@ def _cycles(text: str, unit: str, where: str) -> float:
     return magnitude_in(text, unit, where)
 
 
-def _positive_in(text: str, unit: str, where: str, magnitude_in) -> float:
+def _positive_in(text: str, unit: str, where: str, magnitude_in: Callable[[str, str, str], float]) -> float:
     value = magnitude_in(text, unit, where)
     if not (np.isfinite(value) and value > 0):
         raise InputError(where, f"{text!r} must be a finite value above zero", "a positive quantity")

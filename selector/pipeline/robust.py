@@ -36,6 +36,7 @@ from __future__ import annotations
 import math
 from collections.abc import Callable, Mapping
 from dataclasses import dataclass, field
+from typing import TYPE_CHECKING
 
 import numpy as np
 import pandas as pd
@@ -43,6 +44,9 @@ import pandas as pd
 from selector.errors import InputError
 from selector.inputs.properties import DERIVED_PROPERTIES, PROPERTIES, property_of
 from selector.suggest import did_you_mean
+
+if TYPE_CHECKING:
+    from selector.pipeline.selection import Selection
 
 DEFAULT_SEED = 20261202
 """Seed used when none is given, so that repeated runs agree."""
@@ -174,7 +178,7 @@ def _ranges(
     return low, high
 
 
-def _model(selection) -> tuple[pd.DataFrame, tuple[str, ...], KeyFunction]:
+def _model(selection: Selection) -> tuple[pd.DataFrame, tuple[str, ...], KeyFunction]:
     """Ranked candidates, the stored properties drawn and a key (lower = better) of stored-unit values.
 
     A derived property (the Goodman strength sigma_R) is never drawn itself: its stored
@@ -187,6 +191,7 @@ def _model(selection) -> tuple[pd.DataFrame, tuple[str, ...], KeyFunction]:
     cand = selection.shortlist.reset_index(drop=True)
     if not selection.sized and selection.expression is not None:
         expr = selection.parsed_index
+        assert expr is not None  # a Selection ranked by a typed index carries it parsed
 
         def expression_key(values: Mapping[str, np.ndarray]) -> np.ndarray:
             return -np.asarray(expr.evaluate(values))
@@ -210,6 +215,7 @@ def _model(selection) -> tuple[pd.DataFrame, tuple[str, ...], KeyFunction]:
 
     derivations = list(selection.derivations)
     design = selection.design
+    assert design is not None  # a Selection with sized parts carries its design
     if design.free == "none":
         # A given part: only the material factor of the objective varies (feasibility is not re-drawn).
         from selector.mechanics.objectives import OBJECTIVE_FACTORS
@@ -314,7 +320,7 @@ def _summary(cand: pd.DataFrame, counts: np.ndarray, draws: int, top_k: int) -> 
 
 
 def robustness(
-    selection,
+    selection: Selection,
     draws: int = DEFAULT_DRAWS,
     seed: int | None = None,
     distribution: str = "log-uniform",
@@ -355,7 +361,7 @@ def robustness(
 
 
 def sensitivity(
-    selection,
+    selection: Selection,
     draws: int = 2_000,
     seed: int | None = None,
     distribution: str = "log-uniform",

@@ -21,6 +21,7 @@ import pandas as pd
 
 from selector.errors import InputError
 from selector.inputs.properties import FAMILIES, PROPERTIES
+from selector.inputs.spec import Spec
 from selector.mechanics import sandwich as sw
 from selector.mechanics.objectives import OBJECTIVE_FACTORS, OBJECTIVE_UNITS
 from selector.suggest import did_you_mean
@@ -142,7 +143,9 @@ PAIR_COLUMNS = (
 )
 
 
-def _members(table: pd.DataFrame, chosen: Sequence[str] | None, default: tuple[str, ...], where: str):
+def _members(
+    table: pd.DataFrame, chosen: Sequence[str] | None, default: tuple[str, ...], where: str
+) -> pd.DataFrame:
     """Rows of ``table`` named by families or class ids (``default`` families when None)."""
     names = list(default if chosen is None else chosen)
     ids = set(table["id"])
@@ -206,11 +209,26 @@ def _usable(props: Mapping[str, np.ndarray]) -> np.ndarray:
     return np.logical_and.reduce([np.isfinite(v) & (v > 0) for k, v in props.items() if k != "q"])
 
 
-def _worst(case, loads, faces, cores, t_f, t_c) -> np.ndarray:
+def _worst(
+    case: sw.SandwichCase,
+    loads: Mapping[str, sw.Value],
+    faces: Mapping[str, sw.Value],
+    cores: Mapping[str, sw.Value],
+    t_f: sw.Value,
+    t_c: sw.Value,
+) -> np.ndarray:
     return sw.max_utilisation(case, loads, faces, cores, t_f, t_c)
 
 
-def least_face(case, loads, faces, cores, t_c, f_min, f_max) -> np.ndarray:
+def least_face(
+    case: sw.SandwichCase,
+    loads: Mapping[str, sw.Value],
+    faces: Mapping[str, sw.Value],
+    cores: Mapping[str, sw.Value],
+    t_c: np.ndarray,
+    f_min: sw.Value,
+    f_max: sw.Value,
+) -> np.ndarray:
     """The least t_f [m] in [f_min, f_max] meeting every mode at core thickness t_c; NaN where none does."""
     lo = np.broadcast_to(f_min, np.shape(t_c)).astype(float)
     hi = np.broadcast_to(f_max, np.shape(t_c)).astype(float)
@@ -360,7 +378,19 @@ def size_pairs(
     return SandwichResult(pairs, excluded, loads, OBJECTIVE_UNITS[loads.objective], assumptions)
 
 
-def _pair_frame(face_rows, core_rows, fi, ci, pf, pc, t_f, t_c, face_min, core_min, loads) -> pd.DataFrame:
+def _pair_frame(
+    face_rows: pd.DataFrame,
+    core_rows: pd.DataFrame,
+    fi: np.ndarray,
+    ci: np.ndarray,
+    pf: Mapping[str, np.ndarray],
+    pc: Mapping[str, np.ndarray],
+    t_f: np.ndarray,
+    t_c: np.ndarray,
+    face_min: np.ndarray,
+    core_min: np.ndarray,
+    loads: SandwichLoads,
+) -> pd.DataFrame:
     """The table of pairs: thicknesses, mass, cost, CO2, deflection parts, utilisations, ranked."""
     case, lv = loads.case, loads.as_dict
     area = loads.b * loads.L
@@ -417,7 +447,9 @@ def _pair_frame(face_rows, core_rows, fi, ci, pf, pc, t_f, t_c, face_min, core_m
     return frame.reindex(columns=PAIR_COLUMNS)
 
 
-def _warnings(ok, t_f, t_c, f_min, c_min, loads: SandwichLoads) -> list[str]:
+def _warnings(
+    ok: bool, t_f: float, t_c: float, f_min: float, c_min: float, loads: SandwichLoads
+) -> list[str]:
     if not ok:
         bound = f"faces ≤ L/8, core ≤ L/4{', depth ≤ max_depth' if math.isfinite(loads.max_depth) else ''}"
         return [f"no thicknesses within the bounds ({bound}) meet every mode"]
@@ -432,7 +464,7 @@ def _warnings(ok, t_f, t_c, f_min, c_min, loads: SandwichLoads) -> list[str]:
 
 
 def sandwich_loads(
-    spec,
+    spec: Spec,
     values: Mapping[str, float],
     limits: Mapping[str, Mapping[str, float]],
     conservative: bool = False,

@@ -133,38 +133,42 @@ def apply_screens(table: pd.DataFrame, screens: Screens) -> pd.DataFrame:
     partly = np.zeros(n, dtype=bool)
     reasons: list[list[str]] = [[] for _ in range(n)]
 
-    def note(mask: np.ndarray, text_of) -> None:
-        for i in np.flatnonzero(mask):
-            reasons[i].append(text_of(i))
-
     family = table["family"].to_numpy()
     for mask, template in _family_masks(table, screens):
         rejected |= mask
-        note(mask, lambda i, template=template: template.format(family=family[i]))
+        for i in _positions(mask):
+            reasons[i].append(template.format(family=family[i]))
 
     for limit in screens.limits:
         low, high = _range_of(table, limit)
-        if limit.is_rating:
-            shown = table[limit.symbol].to_numpy()
-            show = lambda i, shown=shown: str(shown[i])  # noqa: E731
-        else:
-            unit = PROPERTIES[limit.symbol].label
-            show = lambda i, lo=low, hi=high, u=unit: f"{format_number(lo[i])}–{format_number(hi[i])} {u}"  # noqa: E731
         missing, fail, part = _outcome(low, high, limit)
         rejected |= fail | missing
         partly |= part
-        note(missing, lambda i, s=limit.symbol: f"no data for {s}")
-        note(fail, lambda i, lim=limit, show=show: f"{lim.symbol} {show(i)} fails {lim.describe()}")
-        note(
-            part,
-            lambda i, lim=limit, show=show: f"only part of {lim.symbol} {show(i)} meets {lim.describe()}",
-        )
+        rule = limit.describe()
+        for i in _positions(missing):
+            reasons[i].append(f"no data for {limit.symbol}")
+        for i in _positions(fail):
+            reasons[i].append(f"{limit.symbol} {_shown(table, limit, low, high, i)} fails {rule}")
+        for i in _positions(part):
+            shown = _shown(table, limit, low, high, i)
+            reasons[i].append(f"only part of {limit.symbol} {shown} meets {rule}")
 
     status = np.where(rejected, REJECTED, np.where(partly, PARTLY, PASSES))
     out = table.copy()
     out["status"] = status
     out["reasons"] = reasons
     return out
+
+
+def _positions(mask: np.ndarray) -> list[int]:
+    return np.flatnonzero(mask).tolist()
+
+
+def _shown(table: pd.DataFrame, limit: Limit, low: np.ndarray, high: np.ndarray, i: int) -> str:
+    """Row ``i``'s rating, or its range with the unit, as a screen's reason shows it."""
+    if limit.is_rating:
+        return str(table[limit.symbol].iat[i])
+    return f"{format_number(low[i])}–{format_number(high[i])} {PROPERTIES[limit.symbol].label}"
 
 
 def screen_mask(table: pd.DataFrame, screens: Screens) -> np.ndarray:

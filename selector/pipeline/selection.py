@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, field, replace
+from typing import TYPE_CHECKING, Any
 
 import numpy as np
 import pandas as pd
@@ -43,6 +44,9 @@ from selector.pipeline.screen import (
 from selector.pipeline.sizing import DEFAULT_DIMS, Design, missing_inputs, size_parts
 from selector.pipeline.tradeoff import SECOND_OBJECTIVE, TradeoffStudy, tradeoff_report
 from selector.pipeline.variants import IMPLICIT_CONSTRAINTS, case_for
+
+if TYPE_CHECKING:
+    import plotly.graph_objects as go
 
 SYMBOL_OF_FIELD = {
     "length": "L",
@@ -154,7 +158,7 @@ class Selection:
 
         return selection_html(self)
 
-    def chart(self, x: str | None = None, y: str | None = None, **options: object):
+    def chart(self, x: str | None = None, y: str | None = None, **options: object) -> go.Figure:
         """A plotly figure of this Selection: properties ``x`` against ``y`` (the index's axes
         by default; the face × core pairs for a sandwich); ``options`` as ``chart_for_selection``."""
         from selector.outputs.notebook import selection_chart
@@ -270,8 +274,8 @@ def design_of(spec: Spec, shape: str) -> Design:
         if (text := getattr(spec.section, name)) is not None
     }
     check_bounds(spec.part.function, shape, bounds)
-    implicit, sf_from = IMPLICIT_CONSTRAINTS.get(spec.part.function, (None, None))
-    if implicit is not None:  # checked on every part, with the safety factor of ``sf_from``
+    if spec.part.function in IMPLICIT_CONSTRAINTS:  # checked on every part, with the SF of ``sf_from``
+        implicit, sf_from = IMPLICIT_CONSTRAINTS[spec.part.function]
         limits[implicit] = {"SF": limits.get(sf_from, {}).get("SF", 1.0)}
     fn, free = spec.part.function, spec.section.free
     values |= fl.derived_geometry(fn, values)
@@ -280,7 +284,7 @@ def design_of(spec: Spec, shape: str) -> Design:
         shape = "rectangle"
         width = values.get("b", dims.get("b"))
         dims = {"b": width} if width else {}
-        if "t" in spec.section.dims:
+        if spec.section.t is not None:
             dims["h"] = magnitude_in(spec.section.t, "m", "section.t")
     elif fn in ("cylinder", "sphere", "plate", "spring"):
         if free == "none" and fn == "spring":
@@ -404,7 +408,7 @@ def studies(
     sensitivity: bool = False,
 ) -> Selection:
     """The Selection with the trade-off and robustness studies asked for (None: not asked)."""
-    found: dict[str, object] = {}
+    found: dict[str, Any] = {}
     if tradeoff is not None:
         try:
             front, second = tradeoff_report(selection, tradeoff, exchange)
@@ -481,9 +485,9 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
         needs = {k: tuple(s for s in v if s not in ranked_on) for k, v in needs.items()}
         screened = fl.reject_missing(screened, needs)  # the index ranking reports its own gaps
     if expression is not None:
-        low, high, typ, needs = expression_index(screened, expression)
+        low, high, typ, index_needs = expression_index(screened, expression)
         parsed = parse(expression)
-        table = rank_by_index(screened, low, high, typ, conservative, needs=needs)
+        table = rank_by_index(screened, low, high, typ, conservative, needs=index_needs)
         if not derivations:
             notes = [f"ranked by the typed index {expression}"]
             return Selection(

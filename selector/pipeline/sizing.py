@@ -151,9 +151,14 @@ def _sizing_ends(design: Design) -> str:
     return "unfavourable" if design.ends == "unfavourable" else "mid"
 
 
-def _inputs(d: Derivation, design: Design, constants: Mapping[str, float]) -> dict[str, float]:
-    values = dict(design.dims) | dict(design.values) | dict(constants)
-    values.update(design.limits.get(d.constraint, {}))
+def _inputs(
+    props: Mapping[str, np.ndarray], d: Derivation, design: Design, constants: Mapping[str, float]
+) -> dict[str, float | np.ndarray]:
+    """What one derivation's monomials read: property values (SI), then the design's
+    dimensions, values and constants, then this constraint's limits."""
+    values: dict[str, float | np.ndarray] = dict(props)
+    for part in (design.dims, design.values, constants, design.limits.get(d.constraint, {})):
+        values.update(part)
     return values
 
 
@@ -245,7 +250,7 @@ def _size_group(table: pd.DataFrame, derivations: list[Derivation], design: Desi
     mid = _si(table, symbols | set(SIZING_PROPERTIES), _sizing_ends(design))
     x = _governing(
         [
-            np.broadcast_to(d.solution.evaluate(mid | _inputs(d, design, constants)), len(table))
+            np.broadcast_to(d.solution.evaluate(_inputs(mid, d, design, constants)), len(table))
             for d in derivations
         ]
     )
@@ -282,7 +287,7 @@ def _size_group(table: pd.DataFrame, derivations: list[Derivation], design: Desi
 def _objective_at_mid(
     d: Derivation, design: Design, constants: Mapping[str, float], mid: Mapping[str, np.ndarray], n: int
 ) -> np.ndarray:
-    return np.broadcast_to(d.objective_value.evaluate(dict(mid) | _inputs(d, design, constants)), n)
+    return np.broadcast_to(d.objective_value.evaluate(_inputs(mid, d, design, constants)), n)
 
 
 def _governing(values: list[np.ndarray]) -> np.ndarray:
@@ -299,7 +304,7 @@ def _objective_at_end(
     for symbol, power in d.objective_value.powers:
         if symbol in MATERIAL_SYMBOLS:
             props |= _si(table, {symbol}, "high" if (power > 0) == worst else "low")
-    return np.broadcast_to(d.objective_value.evaluate(props | _inputs(d, design, constants)), len(table))
+    return np.broadcast_to(d.objective_value.evaluate(_inputs(props, d, design, constants)), len(table))
 
 
 def _dims_for(design: Design, x: float, fn: str) -> dict[str, float]:
@@ -327,7 +332,16 @@ def _wall_key(design: Design, fn: str) -> str | None:
     return {"thickness": "h", "wall": "t"}.get(design.free)
 
 
-def _one_part(row, x, derivations, design, mid, i, constants, floor=0.0) -> dict[str, object]:
+def _one_part(
+    row: pd.Series,
+    x: float,
+    derivations: list[Derivation],
+    design: Design,
+    mid: Mapping[str, np.ndarray],
+    i: int,
+    constants: Mapping[str, float],
+    floor: float = 0.0,
+) -> dict[str, object]:
     fn = derivations[0].case.function
     case = derivations[0].case
     props = {k: v[i] for k, v in mid.items()}
@@ -353,12 +367,19 @@ def _one_part(row, x, derivations, design, mid, i, constants, floor=0.0) -> dict
         )
         dims = dict(dims) | {key: floor}
         geometry = _geometry_values(design, dims, fn)
+        if geometry is None:
+            return {
+                "feasible": False,
+                "size_warnings": [
+                    f"no valid section of this shape has the {floor * 1e3:.3g} mm minimum wall"
+                ],
+            }
     values = dict(design.values) | geometry | props
-    util = {}
+    util: dict[str, float] = {}
     for d in derivations:
         v = values | design.limits.get(d.constraint, {})
         util[d.constraint] = float(case.utilisation[d.constraint].evaluate(v))
-    governing = max(util, key=util.get)
+    governing = max(util, key=util.__getitem__)
     feasible = True
     if design.free == "none" and util[governing] > 1 + CHECK_TOLERANCE:
         feasible = False
@@ -447,7 +468,13 @@ def _geometry_values(design: Design, dims: dict[str, float], fn: str) -> dict[st
     return quantities | {"b": dims.get("b", 0.0)}
 
 
-def _refine(design, dims, derivations, props, fn):
+def _refine(
+    design: Design,
+    dims: dict[str, float],
+    derivations: list[Derivation],
+    props: Mapping[str, float],
+    fn: str,
+) -> tuple[dict[str, float], dict[str, float] | None]:
     """Bisection (in log space) on the free dimension so the largest utilisation is 1."""
     name = FREE_DIMENSION[design.free]
     case = derivations[0].case
@@ -458,7 +485,7 @@ def _refine(design, dims, derivations, props, fn):
         geo = _geometry_values(design, trial, fn)
         if geo is None:
             return math.inf
-        vals = dict(design.values) | geo | props
+        vals = dict(design.values) | geo | dict(props)
         return max(
             float(case.utilisation[d.constraint].evaluate(vals | design.limits.get(d.constraint, {})))
             for d in derivations
@@ -518,7 +545,7 @@ def objective_samples(
     result: np.ndarray | None = None
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         for d in derivations:
-            value = np.asarray(d.objective_value.evaluate(dict(properties) | _inputs(d, design, constants)))
+            value = np.asarray(d.objective_value.evaluate(_inputs(properties, d, design, constants)))
             result = value if result is None else np.fmax(result, value)
     return np.asarray(result)
 
@@ -545,7 +572,7 @@ def screen_samples(
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         for d in checks:
             utilisation = (d.material_factor * d.geometry_factor).evaluate(
-                dict(properties) | _inputs(d, design, constants)
+                _inputs(properties, d, design, constants)
             )
             passes = passes & (np.asarray(utilisation) <= 1 + CHECK_TOLERANCE)
     return np.asarray(passes)

@@ -49,3 +49,26 @@ def test_the_spec_min_wall_raises_the_floor():
     assert row["utilisation"]["strength"] == pytest.approx(0.16 / 2)
     assert row["mass"] > row["objective_low"]
     assert row["objective_high"] >= row["mass"]
+
+
+def test_a_minimum_wall_no_section_can_have_rejects_the_class_with_the_reason():
+    # A 30 mm tube cannot have a 20 mm wall (it would exceed the radius, 15 mm): the part is
+    # refused with the reason, not sized (common practice, no source).
+    spec = spec_from_dict(
+        {
+            "part": {
+                "function": "beam",
+                "support": "cantilever",
+                "load": "end",
+                "length": "1.2 m",
+                "force": "40 N",
+            },
+            "section": {"shape": "tube", "free": "wall", "d": "30 mm", "t": "2 mm", "min_wall": "20 mm"},
+            "constraint": [{"type": "stiffness", "max_deflection": "8 mm"}],
+        }
+    )
+    result = select(spec, make_table([STEELISH]))
+    assert result.shortlist.empty
+    row = result.table.set_index("id").loc["steelish"]
+    assert row["status"] == "rejected"
+    assert any("20 mm minimum wall" in w for w in row["size_warnings"])

@@ -185,7 +185,9 @@ def _log_or_linear(values: np.ndarray, log: bool) -> np.ndarray:
     return np.log10(values) if log else values
 
 
-def _extent(lows: Sequence[np.ndarray], highs: Sequence[np.ndarray], log: bool) -> tuple[float, float]:
+def _extent(
+    lows: Sequence[np.ndarray | float], highs: Sequence[np.ndarray | float], log: bool
+) -> tuple[float, float]:
     """The plotted range of one axis in plotly's units (log10 of the value on a log axis)."""
     low = np.concatenate([np.atleast_1d(v) for v in lows]).astype(float)
     high = np.concatenate([np.atleast_1d(v) for v in highs]).astype(float)

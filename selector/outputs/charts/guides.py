@@ -348,7 +348,7 @@ def _draw_pass_region(
             text = f"{axis.label} {sign} {format_number(value)} {axis.unit}".rstrip()
             if which == "x":
                 pos = {
-                    "x": _log_or_linear(value, x.log),
+                    "x": float(_log_or_linear(np.asarray(value), x.log)),
                     "y": v1,
                     "yanchor": "top",
                     "xanchor": "left" if op == ">=" else "right",
@@ -357,7 +357,7 @@ def _draw_pass_region(
             else:
                 pos = {
                     "x": u0,
-                    "y": _log_or_linear(value, y.log),
+                    "y": float(_log_or_linear(np.asarray(value), y.log)),
                     "xanchor": "left",
                     "yanchor": "bottom" if op == ">=" else "top",
                     "xshift": 3,

@@ -67,10 +67,12 @@ def place_labels(
     return centres
 
 
-def _annotation_boxes(fig: go.Figure, box: tuple[float, float, float, float]) -> list[tuple[float, ...]]:
+def _annotation_boxes(
+    fig: go.Figure, box: tuple[float, float, float, float]
+) -> list[tuple[float, float, float, float]]:
     """Estimated extents (plot fractions) of the text labels already on the plot."""
     u0, u1, v0, v1 = box
-    out = []
+    out: list[tuple[float, float, float, float]] = []
     for note in fig.layout.annotations:
         if note.xref not in (None, "x") or note.yref not in (None, "y") or note.x is None or note.y is None:
             continue

@@ -42,7 +42,7 @@ def make_app(spec_path: str | Path | None = None) -> dash.Dash:
     app = dash.Dash(
         __name__,
         title=f"{start.spec.title} · selector",
-        update_title=None,
+        update_title=None,  # type: ignore[arg-type]  # Dash documents None as "keep the title"
         serve_locally=True,
         include_assets_files=False,  # the style sheet is inlined by INDEX
     )

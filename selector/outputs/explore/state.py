@@ -232,7 +232,7 @@ def spec_data(start: Start, c: Controls) -> dict[str, Any]:
     chosen = [t for t in base if t in c.constraints]
     chosen += [t for t in c.constraints if t not in base and t not in chosen]
     field = _stiffness_field(start)
-    constraints = []
+    constraints: list[dict[str, Any]] = []
     for kind in chosen:
         item = dict(base.get(kind, {"type": kind}))
         if kind == "stiffness":
