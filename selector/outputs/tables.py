@@ -287,6 +287,8 @@ def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -
         out[f"stress [{su}]"] = table["stress"].where(feasible) * sf
         out["utilisation"] = table["utilisation"]
         out["governing"] = table["governing"]
+        if "governing_index" in table:
+            out["governing_index"] = table["governing_index"]
         out["warnings"] = table["size_warnings"]
     out["reasons"] = table["reasons"]
     return out.reset_index(drop=True)
@@ -348,16 +350,24 @@ def render_selection(
         if top:
             flat = flat[flat["rank"].isna() | (flat["rank"] <= top)] if show_all else flat.head(top)
         return csv_text(flat)
-    shown = _compact(frame, units)
+    shown = _compact(frame, units, "index_low" if selection.ranking_key == "index_low" else "index")
     body = render(shown, "md" if fmt == "md" else "table")
     if selection.derivations:
         d = selection.derivations[0]
         head = [f"{selection.spec.title}: {d.case.title}; minimise {d.objective}"]
     else:
         head = [selection.spec.title]
-    head.append(f"merit index (maximise): M = {selection.index_text}")
-    shown = selection.derivations[1:] if selection.expression is None else selection.derivations
-    head += [f"also: {x.constraint} index M = {x.index_text}" for x in shown]
+    counts = selection.governing_counts
+    sized = sum(counts.values())
+
+    def governs(constraint: str) -> str:
+        return f" (governs {counts.get(constraint, 0)} of {sized} sized parts)" if sized else ""
+
+    lead = selection.derivations[0].constraint if selection.derivations else ""
+    typed = selection.expression is not None
+    head.append(f"merit index (maximise): M = {selection.index_text}" + ("" if typed else governs(lead)))
+    shown = selection.derivations[1:] if not typed else selection.derivations
+    head += [f"also: {x.constraint} index M = {x.index_text}{governs(x.constraint)}" for x in shown]
     head += [f"note: {n}" for n in selection.notes]
     ranked = "ranked by " + (f"{selection.ranked_by} of the sized part" if selection.sized else "merit index")
     foot = [
@@ -380,9 +390,10 @@ def _util_text(u: Any) -> str:
     return ", ".join(f"{k} {v:.2f}" for k, v in u.items())
 
 
-def _compact(frame: pd.DataFrame, units: str) -> pd.DataFrame:
-    """Fewer, narrower columns for people."""
-    index_col = next(c for c in frame.columns if c.startswith("index ["))
+def _compact(frame: pd.DataFrame, units: str, index_key: str = "index") -> pd.DataFrame:
+    """Fewer, narrower columns for people; the index column shown is ``index_key`` (the one that
+    ranks, when the shortlist is ranked by index)."""
+    index_col = next(c for c in frame.columns if c.startswith(f"{index_key} ["))
     out = pd.DataFrame(
         {
             "rank": [
@@ -404,7 +415,13 @@ def _compact(frame: pd.DataFrame, units: str) -> pd.DataFrame:
         for col in frame.columns:
             if col.startswith(("mass [", "cost [", "co2 [")):
                 out[col] = frame[col]
-        out["governing"] = frame["governing"].fillna("–")
+        governing = frame["governing"].fillna("–")
+        if "governing_index" in frame:
+            governing = [
+                f"{g} ({m})" if isinstance(m, str) else g
+                for g, m in zip(governing, frame["governing_index"], strict=True)
+            ]
+        out["governing"] = governing
         out["utilisation"] = [_util_text(u) for u in frame["utilisation"]]
         warned = [w if isinstance(w, list) else [] for w in frame["warnings"]]
         notes = ["; ".join(w) for w in warned]

@@ -21,6 +21,7 @@ from selector.pipeline import failure_limits as fl
 from selector.pipeline.applicability import reject_for_stress_state
 from selector.pipeline.bounds import BOUND_FIELDS, bound_reasons, check_bounds
 from selector.pipeline.derive import Derivation, derive_for_case
+from selector.pipeline.governing import canonical_order, governing_counts, lead_with_governing
 from selector.pipeline.rank import monomial_index, rank_by_index, rank_by_value, rerank_by_index
 from selector.pipeline.robust import RobustResult, robustness
 from selector.pipeline.robust import sensitivity as robust_sensitivity
@@ -134,6 +135,11 @@ class Selection:
     @property
     def index_text(self) -> str:
         return self.expression if self.expression is not None else self.derivations[0].index_text
+
+    @property
+    def governing_counts(self) -> dict[str, int]:
+        """Constraint → how many ranked candidates it governs (empty without sizes)."""
+        return governing_counts(self.table) if self.has_sizes else {}
 
     @property
     def sized(self) -> bool:
@@ -461,7 +467,7 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
             raise InputError(f"spec: constraint[{i}].type", f"{c.type!r} is given twice", "each type once")
         seen.add(c.type)
         derivations.append(derive_for_case(case, c.type, spec.objective.minimize, derive_free, c.criterion))
-    derivations.sort(key=lambda d: d.screen)  # a check on the class never ranks
+    derivations = canonical_order(derivations)  # a check on the class never ranks; block order never matters
     if derivations and all(d.screen for d in derivations):
         raise InputError(
             "spec: constraint",
@@ -579,6 +585,8 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
         ranked_by, key = "index", index_key
     else:
         table = rank_by_value(table, "objective", "objective_low", "objective_high")
+        table, derivations = lead_with_governing(table, derivations)
+        table["index_with_shape"] = index_with_shape(table, derivations[0])
         ranked_by, key = objective, "objective"
     return Selection(
         spec,
