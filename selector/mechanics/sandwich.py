@@ -37,6 +37,16 @@ from selector.mechanics.loadcases import BEAM_CONSTANTS
 Value = float | np.ndarray
 """One number, or an array of them (one per pair), in SI units."""
 
+SOURCES = (
+    "H. G. Allen, Analysis and Design of Structural Sandwich Panels, Pergamon, 1969: ch. 2 "
+    "(flexural rigidity, thin-face and weak-core limits), ch. 8 (face wrinkling)",
+    "D. Zenkert, An Introduction to Sandwich Construction, EMAS, 1995: ch. 4 "
+    "(bending and shear deflection constants B₁, B₂)",
+    "L. J. Gibson and M. F. Ashby, Cellular Solids, 2nd ed., Cambridge University Press, 1997: "
+    "ch. 9 (failure modes of sandwich beams with foam cores)",
+)
+"""The texts the model follows (cited from memory), for every output that states the model."""
+
 MODES = ("stiffness", "face-yield", "face-wrinkling", "core-shear")
 """The failure modes of a sandwich, in the order they are reported."""
 

@@ -461,6 +461,11 @@ def report_context(
         "property": _chart_html(_property_chart(selection, units), "chart-property"),
         "tradeoff": _chart_html(trade.get("chart"), "chart-tradeoff"),
     }
+    from selector.outputs.report_sandwich import sandwich_view
+
+    sandwich = sandwich_view(selection, units)
+    if sandwich is not None:
+        charts["sandwich"] = _chart_html(sandwich.pop("figure"), "chart-sandwich")
     return {
         "title": selection.spec.title,
         "notes": selection.spec.notes,
@@ -483,6 +488,7 @@ def report_context(
         "charts": charts,
         "tradeoff": trade,
         "robust": _robust_view(selection),
+        "sandwich": sandwich,
         "provenance": provenance(selection.table),
         "source_html": _source_html,
     }

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import textwrap
 from typing import Any
 
 import numpy as np
@@ -59,15 +60,20 @@ def pairs_chart(selection: Any) -> go.Figure:
         template="plotly_white",
         annotations=[
             {
-                "text": _esc(selection.caution),
+                "text": "<br>".join(_esc(line) for line in textwrap.wrap(selection.caution, 100)),
                 "xref": "paper",
                 "yref": "paper",
                 "x": 0,
-                "y": -0.25,
+                "y": 1,
+                "xanchor": "left",
+                "yanchor": "bottom",
+                "yshift": 6,
                 "showarrow": False,
                 "font": {"size": 10},
             }
         ],
+        # the caution sits between the title and the grid, clear of the tilted core names
+        margin={"t": 110},
     )
     return fig
 
