@@ -14,7 +14,8 @@ from typing import Any
 import pandas as pd
 
 from selector.inputs.units import format_number
-from selector.outputs.tables import LENGTH_UNIT, selection_frame
+from selector.outputs.tables import LENGTH_UNIT, column_headers, selection_frame, sized_value_headers
+from selector.pipeline import columns
 
 NOTEBOOK_ROWS = 10
 """Shortlist rows shown inline; the full table is ``selection.shortlist``."""
@@ -72,7 +73,7 @@ def _short_names(selection: Any, ids: pd.Series, names: pd.Series) -> list[str]:
 def shortlist_view(selection: Any, units: str, rows: int = NOTEBOOK_ROWS) -> pd.DataFrame:
     """The first ``rows`` of the shortlist with the columns a notebook has room for."""
     frame = selection_frame(selection, units).head(rows)
-    index_col = next(c for c in frame.columns if c.startswith("index ["))
+    index_col = column_headers(selection, units)[columns.INDEX]
     out = pd.DataFrame(
         {
             "rank": [
@@ -86,9 +87,8 @@ def shortlist_view(selection: Any, units: str, rows: int = NOTEBOOK_ROWS) -> pd.
     )
     if selection.has_sizes:
         out["size"] = [_size_text(d, units) for d in frame["dimensions"]]
-        for col in frame.columns:
-            if col.startswith(("mass [", "cost [", "co2 [")):
-                out[col] = frame[col].astype(float)
+        for col in sized_value_headers(selection, units):
+            out[col] = frame[col].astype(float)
         out["governing"] = frame["governing"].fillna("–")
     return out
 

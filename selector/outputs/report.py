@@ -19,6 +19,7 @@ from typing import Any
 
 from selector.errors import InputError, SelectorError
 from selector.mechanics.objectives import OBJECTIVE_UNITS
+from selector.pipeline import columns
 
 DEFAULT_REPORT_DRAWS = 2000
 """Monte Carlo draws for the robustness figures unless asked otherwise."""
@@ -153,20 +154,20 @@ def _source_html(text: str) -> Any:
     return Markup(_EMPHASIS.sub(r"<em>\1</em>", str(escape(text))))
 
 
-def _split_unit(label: str) -> tuple[str, str]:
-    """``"mass [kg]"`` → ("mass", "kg")."""
-    name, _, unit = label.partition(" [")
-    return name, unit.rstrip("]")
-
-
 def shortlist_rows(selection: Any, units: str) -> tuple[dict[str, Any], list[dict[str, Any]]]:
     """Column headings and one row per ranked candidate, formatted for the page."""
-    from selector.outputs.tables import LENGTH_UNIT, selection_frame
+    from selector.outputs.tables import (
+        LENGTH_UNIT,
+        column_headers,
+        selection_frame,
+        sized_value_headers,
+        split_header,
+    )
 
     frame = selection_frame(selection, units)
-    index_col = next(c for c in frame.columns if c.startswith("index ["))
-    low_col, high_col = (index_col.replace("index", name, 1) for name in ("index_low", "index_high"))
-    value_cols = [c for c in frame.columns if c.startswith(("mass [", "cost [", "co2 ["))]
+    heads = column_headers(selection, units)
+    index_col, low_col, high_col = (heads[c] for c in (columns.INDEX, columns.INDEX_LOW, columns.INDEX_HIGH))
+    value_cols = sized_value_headers(selection, units)
     kinds = [d.constraint for d in selection.derivations]
     rows = []
     for r in frame.to_dict(orient="records"):
@@ -196,9 +197,9 @@ def shortlist_rows(selection: Any, units: str) -> tuple[dict[str, Any], list[dic
             row["warnings"] = list(r["warnings"]) if isinstance(r["warnings"], list) else []
         rows.append(row)
     header = {
-        "index": _split_unit(index_col)[1],
+        "index": split_header(index_col)[1],
         "size": LENGTH_UNIT[units],
-        "values": [_split_unit(c) for c in value_cols],
+        "values": [split_header(c) for c in value_cols],
     }
     return header, rows
 

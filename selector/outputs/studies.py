@@ -8,6 +8,7 @@ import pandas as pd
 
 from selector.mechanics.objectives import OBJECTIVE_UNITS
 from selector.outputs.tables import render
+from selector.pipeline.columns import is_index_column
 from selector.pipeline.robust import RobustResult
 from selector.pipeline.tradeoff import EXCHANGE_LABELS
 
@@ -45,7 +46,7 @@ def render_tradeoff(
     if fmt == "csv":
         return render(_display(second), "csv")
     body = "md" if fmt == "md" else "table"
-    objectives = [c for c in front.columns if c in OBJECTIVE_UNITS or c.startswith("index")]
+    objectives = [c for c in front.columns if c in OBJECTIVE_UNITS or is_index_column(c)]
     lines = [
         f"Pareto front ({' vs '.join(objectives)}; all minimised): {len(front)} members",
         "",

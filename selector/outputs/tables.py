@@ -18,6 +18,7 @@ from selector.errors import InputError
 from selector.inputs.properties import PROPERTIES, RATINGS, property_of
 from selector.inputs.units import format_number
 from selector.outputs.cells import csv_text, markdown_text
+from selector.pipeline import columns
 
 SUMMARY_PROPERTIES = ("rho", "E", "sigma_y", "sigma_ts", "T_max", "price")
 LENGTH_UNIT = {"si": "mm", "us": "in"}
@@ -187,8 +188,8 @@ def _json_records(frame: pd.DataFrame) -> list[dict[str, Any]]:
     for row in frame.to_dict(orient="records"):
         record: dict[str, Any] = {}
         for key, value in row.items():
-            if isinstance(key, str) and key.endswith("]") and " [" in key:
-                name, unit = key[:-1].split(" [", 1)
+            name, unit = split_header(key) if isinstance(key, str) else (key, None)
+            if unit is not None:
                 record[name] = {"value": _json_value(value), "unit": unit}
             else:
                 record[key] = _json_value(value)
@@ -247,50 +248,90 @@ def index_unit(exponents: dict[str, float]) -> str:
     return f"{top}/" + ("·".join(down) if len(down) == 1 else "(" + "·".join(down) + ")")
 
 
+def header(column: str, unit: str) -> str:
+    """A display header that carries its unit, e.g. ``mass [kg]``."""
+    return f"{column} [{unit}]"
+
+
+def split_header(label: str) -> tuple[str, str | None]:
+    """``"mass [kg]"`` → ("mass", "kg"); a header without a unit → (header, None)."""
+    if label.endswith("]") and " [" in label:
+        name, unit = label[:-1].split(" [", 1)
+        return name, unit
+    return label, None
+
+
+def column_headers(selection: Any, units: str = "si") -> dict[str, str]:
+    """The display header of each shortlist column that carries a unit, keyed by its column name."""
+    exponents = selection.index_exponents
+    unit = index_unit(exponents) if exponents is not None else "as typed"
+    mu, lu = MASS_UNIT[units], LENGTH_UNIT[units]
+    return {
+        columns.INDEX: header(columns.INDEX, unit),
+        columns.INDEX_LOW: header(columns.INDEX_LOW, unit),
+        columns.INDEX_HIGH: header(columns.INDEX_HIGH, unit),
+        columns.INDEX_WITH_SHAPE: header(columns.INDEX_WITH_SHAPE, unit),
+        columns.MASS: header(columns.MASS, mu),
+        columns.COST: header(columns.COST, "USD"),
+        columns.CO2: header(columns.CO2, f"{mu} CO2e"),
+        columns.DEFLECTION: header(columns.DEFLECTION, lu),
+        columns.TWIST: header(columns.TWIST, ANGLE_UNIT),
+        columns.STRESS: header(columns.STRESS, _STRESS[units][0]),
+    }
+
+
+def sized_value_headers(selection: Any, units: str = "si") -> list[str]:
+    """Headers of the per-part totals (mass, cost, CO2) shown beside a sized part; none unsized."""
+    if not selection.has_sizes:
+        return []
+    heads = column_headers(selection, units)
+    return [heads[c] for c in columns.SIZED_VALUES]
+
+
 def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -> pd.DataFrame:
     """The shortlist (and optionally the rejected classes) with units in the headers."""
     table = selection.table if show_all else selection.shortlist
-    exponents = selection.index_exponents
-    unit = index_unit(exponents) if exponents is not None else "as typed"
+    heads = column_headers(selection, units)
     out = pd.DataFrame(
         {
-            "rank": table["rank"],
-            "id": table["id"],
-            "name": table["name"],
-            "family": table["family"],
-            "status": table["status"],
-            f"index [{unit}]": table["index"],
-            f"index_low [{unit}]": table["index_low"],
-            f"index_high [{unit}]": table["index_high"],
-            "close_to_leader": table["close_to_leader"].astype(bool),
+            columns.RANK: table[columns.RANK],
+            columns.ID: table[columns.ID],
+            columns.NAME: table[columns.NAME],
+            columns.FAMILY: table[columns.FAMILY],
+            columns.STATUS: table[columns.STATUS],
+            heads[columns.INDEX]: table[columns.INDEX],
+            heads[columns.INDEX_LOW]: table[columns.INDEX_LOW],
+            heads[columns.INDEX_HIGH]: table[columns.INDEX_HIGH],
+            columns.CLOSE_TO_LEADER: table[columns.CLOSE_TO_LEADER].astype(bool),
         }
     )
-    if "index_with_shape" in table and table["index_with_shape"].notna().any():
+    if columns.INDEX_WITH_SHAPE in table and table[columns.INDEX_WITH_SHAPE].notna().any():
         out.insert(
-            out.columns.get_loc("close_to_leader"), f"index_with_shape [{unit}]", table["index_with_shape"]
+            out.columns.get_loc(columns.CLOSE_TO_LEADER),
+            heads[columns.INDEX_WITH_SHAPE],
+            table[columns.INDEX_WITH_SHAPE],
         )
     if selection.has_sizes:
         lf, mf = _LENGTH_FACTOR[units], _MASS_FACTOR[units]
-        lu, mu = LENGTH_UNIT[units], MASS_UNIT[units]
-        su, sf = _STRESS[units]
-        feasible = table["feasible"]
-        out["dimensions"] = [
+        sf = _STRESS[units][1]
+        feasible = table[columns.FEASIBLE]
+        out[columns.DIMENSIONS] = [
             {k: v * lf for k, v in d.items() if k != "V"} if isinstance(d, dict) else None
-            for d in table["dimensions"]
+            for d in table[columns.DIMENSIONS]
         ]
-        out[f"mass [{mu}]"] = table["mass"].where(feasible) * mf
-        out["cost [USD]"] = table["cost"].where(feasible)
-        out[f"co2 [{mu} CO2e]"] = table["co2"].where(feasible) * mf
-        out[f"deflection [{lu}]"] = table["deflection"].where(feasible) * lf
-        if "twist" in table and table["twist"].notna().any():
-            out[f"twist [{ANGLE_UNIT}]"] = np.degrees(table["twist"].where(feasible))
-        out[f"stress [{su}]"] = table["stress"].where(feasible) * sf
-        out["utilisation"] = table["utilisation"]
-        out["governing"] = table["governing"]
-        if "governing_index" in table:
-            out["governing_index"] = table["governing_index"]
-        out["warnings"] = table["size_warnings"]
-    out["reasons"] = table["reasons"]
+        out[heads[columns.MASS]] = table[columns.MASS].where(feasible) * mf
+        out[heads[columns.COST]] = table[columns.COST].where(feasible)
+        out[heads[columns.CO2]] = table[columns.CO2].where(feasible) * mf
+        out[heads[columns.DEFLECTION]] = table[columns.DEFLECTION].where(feasible) * lf
+        if columns.TWIST in table and table[columns.TWIST].notna().any():
+            out[heads[columns.TWIST]] = np.degrees(table[columns.TWIST].where(feasible))
+        out[heads[columns.STRESS]] = table[columns.STRESS].where(feasible) * sf
+        out["utilisation"] = table[columns.UTILISATION]
+        out["governing"] = table[columns.GOVERNING]
+        if columns.GOVERNING_INDEX in table:
+            out["governing_index"] = table[columns.GOVERNING_INDEX]
+        out["warnings"] = table[columns.SIZE_WARNINGS]
+    out["reasons"] = table[columns.REASONS]
     return out.reset_index(drop=True)
 
 
@@ -350,7 +391,7 @@ def render_selection(
         if top:
             flat = flat[flat["rank"].isna() | (flat["rank"] <= top)] if show_all else flat.head(top)
         return csv_text(flat)
-    shown = _compact(frame, units, "index_low" if selection.ranking_key == "index_low" else "index")
+    shown = _compact(frame, units, column_headers(selection, units), selection.ranking_key)
     body = render(shown, "md" if fmt == "md" else "table")
     if selection.derivations:
         d = selection.derivations[0]
@@ -390,10 +431,13 @@ def _util_text(u: Any) -> str:
     return ", ".join(f"{k} {v:.2f}" for k, v in u.items())
 
 
-def _compact(frame: pd.DataFrame, units: str, index_key: str = "index") -> pd.DataFrame:
-    """Fewer, narrower columns for people; the index column shown is ``index_key`` (the one that
-    ranks, when the shortlist is ranked by index)."""
-    index_col = next(c for c in frame.columns if c.startswith(f"{index_key} ["))
+def _compact(frame: pd.DataFrame, units: str, heads: dict[str, str], ranking_key: str) -> pd.DataFrame:
+    """Fewer, narrower columns for people.
+
+    ``heads`` maps column names to their display headers; the index column shown is the low end
+    when that is what ranks the shortlist (``ranking_key``), else the typical index.
+    """
+    index_col = heads[columns.INDEX_LOW if ranking_key == columns.INDEX_LOW else columns.INDEX]
     out = pd.DataFrame(
         {
             "rank": [
@@ -412,9 +456,8 @@ def _compact(frame: pd.DataFrame, units: str, index_key: str = "index") -> pd.Da
             " ".join(f"{k}={format_number(v)}" for k, v in d.items()) if isinstance(d, dict) else "–"
             for d in frame["dimensions"]
         ]
-        for col in frame.columns:
-            if col.startswith(("mass [", "cost [", "co2 [")):
-                out[col] = frame[col]
+        for value in columns.SIZED_VALUES:
+            out[heads[value]] = frame[heads[value]]
         governing = frame["governing"].fillna("–")
         if "governing_index" in frame:
             governing = [

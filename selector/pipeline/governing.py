@@ -14,6 +14,7 @@ from collections import Counter
 import pandas as pd
 
 from selector.mechanics.loadcases import CONSTRAINTS
+from selector.pipeline import columns
 from selector.pipeline.derive import Derivation
 from selector.pipeline.rank import monomial_index
 
@@ -48,9 +49,10 @@ def lead_with_governing(
         former = derivations[0]
         derivations = [lead, *(d for d in derivations if d is not lead)]
         low, high, typical = monomial_index(out, lead.exponents)
-        out[f"index_{former.constraint}"] = out["index"]
-        out["index_low"], out["index_high"], out["index"] = low, high, typical
-        out = out.drop(columns=f"index_{lead.constraint}")
+        out[columns.constraint_index(former.constraint)] = out[columns.INDEX]
+        out[columns.INDEX_LOW], out[columns.INDEX_HIGH], out[columns.INDEX] = low, high, typical
+        out = out.drop(columns=columns.constraint_index(lead.constraint))
     text = {d.constraint: d.index_text for d in derivations}
-    out["governing_index"] = out["governing"].map(text) if "governing" in out else None
+    has_governing = columns.GOVERNING in out
+    out[columns.GOVERNING_INDEX] = out[columns.GOVERNING].map(text) if has_governing else None
     return out, derivations

@@ -14,6 +14,7 @@ import numpy as np
 import pandas as pd
 
 from selector.inputs.properties import property_of
+from selector.pipeline.columns import CLOSE_TO_LEADER, INDEX, INDEX_HIGH, INDEX_LOW, NAME, RANK, STATUS
 from selector.pipeline.screen import REJECTED
 
 
@@ -58,7 +59,7 @@ def rank_by_index(
     Classes with no index value (a property missing) are rejected with a reason.
     """
     out = screened.copy()
-    out["index_low"], out["index_high"], out["index"] = low, high, typical
+    out[INDEX_LOW], out[INDEX_HIGH], out[INDEX] = low, high, typical
     missing = ~np.isfinite(typical) | ~np.isfinite(low)
     if missing.any():
         reasons = out["reasons"].copy()
@@ -70,35 +71,35 @@ def rank_by_index(
             reasons.iat[i] = [*reasons.iat[i], f"no data for {', '.join(absent) or 'the index'}"]
         out["reasons"] = reasons
         out.loc[missing, "status"] = REJECTED
-    key = out["index_low"] if conservative else out["index"]
+    key = out[INDEX_LOW] if conservative else out[INDEX]
     return _rank(out, -key)
 
 
 def rerank_by_index(table: pd.DataFrame, conservative: bool = False) -> pd.DataFrame:
     """Rank again by the index columns already in ``table`` (after more classes were rejected)."""
-    return _rank(table.copy(), -(table["index_low"] if conservative else table["index"]))
+    return _rank(table.copy(), -(table[INDEX_LOW] if conservative else table[INDEX]))
 
 
 def _rank(out: pd.DataFrame, key: pd.Series) -> pd.DataFrame:
     """Rank the non-rejected rows by ascending ``key``; flag overlaps with the leader."""
-    alive = out["status"] != REJECTED
+    alive = out[STATUS] != REJECTED
     order = key.where(alive).rank(method="first")
-    out["rank"] = order.astype("Int64")
-    out["close_to_leader"] = False
+    out[RANK] = order.astype("Int64")
+    out[CLOSE_TO_LEADER] = False
     if alive.any():
         leader = out.loc[order.idxmin()]
-        out["close_to_leader"] = alive & (out["index_high"] >= leader["index_low"]) & (out["rank"] != 1)
-    return out.sort_values(["rank", "name"], na_position="last").reset_index(drop=True)
+        out[CLOSE_TO_LEADER] = alive & (out[INDEX_HIGH] >= leader[INDEX_LOW]) & (out[RANK] != 1)
+    return out.sort_values([RANK, NAME], na_position="last").reset_index(drop=True)
 
 
 def rank_by_value(sized: pd.DataFrame, value: str, low: str, high: str) -> pd.DataFrame:
     """Rank sized parts by ascending objective ``value``; overlap flag on the value ranges."""
     out = sized.copy()
-    alive = out["status"] != REJECTED
+    alive = out[STATUS] != REJECTED
     order = out[value].where(alive & np.isfinite(out[value])).rank(method="first")
-    out["rank"] = order.astype("Int64")
-    out["close_to_leader"] = False
+    out[RANK] = order.astype("Int64")
+    out[CLOSE_TO_LEADER] = False
     if order.notna().any():
         leader = out.loc[order.idxmin()]
-        out["close_to_leader"] = order.notna() & (out[low] <= leader[high]) & (out["rank"] != 1)
-    return out.sort_values(["rank", "name"], na_position="last").reset_index(drop=True)
+        out[CLOSE_TO_LEADER] = order.notna() & (out[low] <= leader[high]) & (out[RANK] != 1)
+    return out.sort_values([RANK, NAME], na_position="last").reset_index(drop=True)

@@ -20,6 +20,7 @@ from selector.mechanics.stress_states import stress_state
 from selector.pipeline import failure_limits as fl
 from selector.pipeline.applicability import reject_for_stress_state
 from selector.pipeline.bounds import BOUND_FIELDS, bound_reasons, check_bounds
+from selector.pipeline.columns import INDEX, INDEX_LOW, INDEX_WITH_SHAPE, constraint_index
 from selector.pipeline.derive import Derivation, derive_for_case
 from selector.pipeline.governing import canonical_order, governing_counts, lead_with_governing
 from selector.pipeline.rank import monomial_index, rank_by_index, rank_by_value, rerank_by_index
@@ -117,7 +118,7 @@ class Selection:
     """The ranked face × core pairs when the section is a sandwich; the table then holds solid parts."""
     design: Design | None = None
     parsed_index: Expression | None = field(default=None, compare=False)
-    ranking_key: str = "index"
+    ranking_key: str = INDEX
     tradeoff: TradeoffStudy | None = None
     robust: RobustResult | None = None
     sensitivity: pd.DataFrame | None = field(default=None, compare=False)
@@ -354,7 +355,7 @@ def index_with_shape(table: pd.DataFrame, derivation: Derivation) -> np.ndarray:
         mode = SHAPE_CONSTANT[k]
         phi = table["family"].map(lambda f, mode=mode: max_shape_factor(f, mode)).to_numpy(dtype=float)
         factor *= phi ** (-float(powers[k]) / float(scale))
-    return table["index"].to_numpy(dtype=float) * factor
+    return table[INDEX].to_numpy(dtype=float) * factor
 
 
 def expression_index(
@@ -447,7 +448,7 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
         return _select_sandwich(spec, materials, conservative, index)
     expression = index if index is not None else spec.index
     parsed = None
-    index_key = "index_low" if conservative else "index"
+    index_key = INDEX_LOW if conservative else INDEX
     if not spec.constraint and expression is None:
         raise InputError(
             "spec: constraint", "the spec has no [[constraint]] and no index", "at least one constraint table"
@@ -513,9 +514,9 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
         table = rank_by_index(screened, low, high, typ, conservative, needs=tuple(first.exponents))
     for d in derivations[1:]:
         _, _, extra = monomial_index(table, d.exponents)
-        table[f"index_{d.constraint}"] = extra
+        table[constraint_index(d.constraint)] = extra
     if expression is None:
-        table["index_with_shape"] = index_with_shape(table, first)
+        table[INDEX_WITH_SHAPE] = index_with_shape(table, first)
     notes = list(case.notes) + [
         case.constraint_notes[d.constraint] for d in derivations if d.constraint in case.constraint_notes
     ]

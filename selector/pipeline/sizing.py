@@ -26,6 +26,7 @@ from selector.inputs.properties import DERIVED_PROPERTIES, HIGH_IS_UNFAVOURABLE,
 from selector.mechanics import sections as sec
 from selector.mechanics.objectives import OBJECTIVE_FACTORS
 from selector.mechanics.product_forms import minimum_walls
+from selector.pipeline import columns
 from selector.pipeline.derive import Derivation
 
 MIN_PRACTICAL_WALL = 0.5e-3
@@ -50,18 +51,18 @@ SHAPE_CONSTANTS = frozenset({"k_I", "k_Imin", "k_Z", "k_J", "k_Zt"})
 CHECK_TOLERANCE = 1e-9
 """Utilisation slack when checking a part whose dimensions are all fixed (free = none)."""
 SIZED_COLUMNS = (
-    "feasible",
-    "dimensions",
-    "mass",
-    "cost",
-    "co2",
-    "volume",
-    "deflection",
-    "twist",
-    "stress",
-    "utilisation",
-    "governing",
-    "size_warnings",
+    columns.FEASIBLE,
+    columns.DIMENSIONS,
+    columns.MASS,
+    columns.COST,
+    columns.CO2,
+    columns.VOLUME,
+    columns.DEFLECTION,
+    columns.TWIST,
+    columns.STRESS,
+    columns.UTILISATION,
+    columns.GOVERNING,
+    columns.SIZE_WARNINGS,
 )
 """Columns ``size_parts`` adds, present even when no class is sized."""
 FREE_DIMENSION = {"depth": "h", "width": "b", "thickness": "h", "wall": "t"}

@@ -24,6 +24,7 @@ import pandas as pd
 
 from selector.errors import InputError
 from selector.mechanics.objectives import OBJECTIVE_UNITS, exchange_unit
+from selector.pipeline.columns import is_index_column
 from selector.suggest import did_you_mean
 
 SECOND_OBJECTIVE: dict[str, str] = {o: "cost" if o != "cost" else "mass" for o in OBJECTIVE_UNITS}
@@ -139,11 +140,7 @@ def _check_objectives(table: pd.DataFrame, objectives: Sequence[str], where: str
         )
     if len(set(names)) != len(names):
         raise InputError(where, f"an objective is given twice ({', '.join(names)})", "different objectives")
-    index_columns = [
-        c
-        for c in table.columns
-        if c == "index" or (c.startswith("index_") and c not in ("index_low", "index_high"))
-    ]
+    index_columns = [c for c in table.columns if is_index_column(c)]
     valid = [*OBJECTIVE_UNITS, *index_columns]
     for name in names:
         if name in OBJECTIVE_UNITS and name not in table:

@@ -24,6 +24,7 @@ from selector.outputs.explore.state import (
     _stiffness_field,
     sync_screen,
 )
+from selector.pipeline import columns
 
 _FORMULA = re.compile(
     r"\^\((?P<group>[^()]{1,40})\)|\^(?P<number>-?[0-9]+(?:\.[0-9]+)?)|(?<=[A-Za-zα-ωΑ-Ω])_(?P<sub>[A-Za-z0-9]{1,6})"
@@ -61,12 +62,18 @@ def _pick_button(class_id: str, label: str) -> Any:
 
 def shortlist_view(selection: Any, units: str) -> Any:
     """The shortlist as a table (sizes where the spec has loads), the rejected classes, the caution."""
-    from selector.outputs.tables import LENGTH_UNIT, selection_frame
+    from selector.outputs.tables import (
+        LENGTH_UNIT,
+        column_headers,
+        selection_frame,
+        sized_value_headers,
+        split_header,
+    )
 
     frame = selection_frame(selection, units)
-    index_col = next(c for c in frame.columns if c.startswith("index ["))
-    unit = index_col[len("index [") : -1]
-    value_cols = [c for c in frame.columns if c.startswith(("mass [", "cost [", "co2 ["))]
+    index_col = column_headers(selection, units)[columns.INDEX]
+    unit = split_header(index_col)[1]
+    value_cols = sized_value_headers(selection, units)
     head = ["rank", "class", "family", "status", f"index ({unit})"]
     if selection.has_sizes:
         head += [f"size ({LENGTH_UNIT[units]})", *value_cols, "governing"]
