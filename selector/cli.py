@@ -317,7 +317,8 @@ def _studies(selection: Selection, fmt: str) -> str:
         asked = (("tradeoff", selection.tradeoff), ("robustness", selection.robust))
         names = [n for n, study in asked if study is not None]
         merged = {name: json.loads(part) for name, part in zip(names, parts, strict=True)}
-        return json.dumps(merged | {"caution": selection.caution}, indent=2)
+        stated = {"assumptions": list(selection.assumptions)}
+        return json.dumps(merged | stated | {"caution": selection.caution}, indent=2)
     if fmt in (None, "table", "md"):
         parts.append(f"CAUTION: {selection.caution}")
     return "\n\n".join(parts)

@@ -56,8 +56,8 @@ def spec_rows(selection: Any) -> list[tuple[str, str, Any]]:
     rows.append(("result", "merit index (maximise)", f"M = {selection.index_text}"))
     rows.append(("result", "ranked by", selection.ranked_by if selection.sized else "merit index"))
     models: list[str] = []
+    rows += [("assumption", "model", a) for a in selection.assumptions]
     for d in selection.derivations:
-        rows.append(("assumption", f"{d.constraint} constraint", d.case.equations.get(d.constraint, "")))
         if d.geometry.description not in models:
             models.append(d.geometry.description)
     rows += [("assumption", "section model", m) for m in models]

@@ -477,6 +477,7 @@ def report_context(
         "spec_name": spec_name or "spec",
         "summary": _summary(selection, units),
         "run_notes": list(selection.notes),
+        "assumptions": list(selection.assumptions),
         "derivations": [_derivation_view(d) for d in selection.derivations],
         "typed_index": formula_html(selection.expression) if selection.expression else None,
         "screens": _screens_view(selection),

@@ -102,7 +102,7 @@ def _json(selection: Any, units: str, top: int | None) -> str:
     out = {
         "pairs": rows,
         "solid": solid_out,
-        "assumptions": list(selection.sandwich.assumptions),
+        "assumptions": list(selection.assumptions),
         "caution": selection.caution,
     }
     return json.dumps(out, indent=2, allow_nan=False)
@@ -127,7 +127,7 @@ def render_sandwich(selection: Any, fmt: str, units: str = "si", top: int | None
         f"{selection.spec.title}: sandwich {loads.function}, {loads.case.support}, {loads.case.load} load; "
         f"minimise {loads.objective}",
         *(f"  {eq}" for eq in loads.case.equations),
-        *(f"assumes: {a}" for a in result.assumptions),
+        *(f"assumes: {a}" for a in selection.assumptions),
     ]
     foot = [
         _solid_line(selection, units),

@@ -383,6 +383,8 @@ def render_selection(
                 r["dimensions"] = {k: {"value": v, "unit": lu} for k, v in r["dimensions"].items()}
             if "rank" in r and r["rank"] is not None:
                 r["rank"] = int(r["rank"])
+            if selection.assumptions:
+                r["assumptions"] = list(selection.assumptions)
             if selection.has_sizes:
                 r["caution"] = selection.caution
         return json.dumps(records, indent=2, allow_nan=False, default=_json_value)
@@ -418,10 +420,13 @@ def render_selection(
         + ("objective" if selection.sized else "index")
         + " range overlaps the leader's: too close to call",
         "",
+        *(f"assumes: {a}" for a in selection.assumptions),
+        *([""] if selection.assumptions else []),
         f"CAUTION: {selection.caution}",
     ]
     if fmt == "md":
         head = [markdown_text(line) for line in head]
+        foot = [markdown_text(line) for line in foot]
     return "\n".join([*head, "", body, "", *foot])
 
 

@@ -17,7 +17,10 @@ from __future__ import annotations
 
 from collections.abc import Callable, Mapping
 
+import pandas as pd
+
 from selector.errors import InputError
+from selector.pipeline.sizing import Design
 
 BOUND_FIELDS = ("max_depth", "max_width", "max_diameter")
 ROUND_SHAPES = ("round", "tube")
@@ -79,3 +82,15 @@ def bound_reasons(
         if needed is not None and needed > limit * (1 + 1e-9):
             reasons.append(f"needs {words} = {needed * 1e3:.3g} mm, above {name} = {limit * 1e3:.3g} mm")
     return reasons
+
+
+def reject_out_of_bounds(table: pd.DataFrame, design: Design, fn: str) -> pd.DataFrame:
+    """The table with every sized part that exceeds a ``[section]`` bound made infeasible, with why."""
+    table = table.copy()
+    radius = design.values.get("r", 0.0)
+    for i in table.index[table["feasible"]]:
+        why = bound_reasons(fn, design.shape, design.bounds, table.at[i, "dimensions"], radius)
+        if why:
+            table.at[i, "feasible"] = False
+            table.at[i, "size_warnings"] = [*table.at[i, "size_warnings"], *why]
+    return table

@@ -19,7 +19,8 @@ from selector.mechanics.objectives import OBJECTIVE_UNITS
 from selector.mechanics.stress_states import stress_state
 from selector.pipeline import failure_limits as fl
 from selector.pipeline.applicability import reject_for_stress_state
-from selector.pipeline.bounds import BOUND_FIELDS, bound_reasons, check_bounds
+from selector.pipeline.assumptions import assumptions_for
+from selector.pipeline.bounds import BOUND_FIELDS, check_bounds, reject_out_of_bounds
 from selector.pipeline.columns import INDEX, INDEX_LOW, INDEX_WITH_SHAPE, constraint_index
 from selector.pipeline.derive import Derivation, derive_for_case
 from selector.pipeline.governing import canonical_order, governing_counts, lead_with_governing
@@ -102,6 +103,8 @@ class Selection:
         robust: the Monte Carlo odds asked for with ``select(..., robust=draws)``.
         sensitivity: which property's scatter unsettles the leader (with ``sensitivity=True``).
         tradeoff_error, robust_error: why a study that was asked for could not be made.
+        assumptions: every modelling assumption behind the result, each once (a sandwich's
+            first, then those of the solid parts beside it).
     """
 
     spec: Spec
@@ -124,6 +127,8 @@ class Selection:
     sensitivity: pd.DataFrame | None = field(default=None, compare=False)
     tradeoff_error: SelectorError | None = None
     robust_error: SelectorError | None = None
+    assumptions: tuple[str, ...] = ()
+    """The modelling assumptions behind the result (equations and constants, models, what is left out)."""
 
     @property
     def index_exponents(self) -> dict[str, float] | None:
@@ -517,10 +522,7 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
         table[constraint_index(d.constraint)] = extra
     if expression is None:
         table[INDEX_WITH_SHAPE] = index_with_shape(table, first)
-    notes = list(case.notes) + [
-        case.constraint_notes[d.constraint] for d in derivations if d.constraint in case.constraint_notes
-    ]
-    notes += [
+    notes = [
         f"{d.constraint} sets no size: it checks each class; {d.steps[-1][:1].lower()}{d.steps[-1][1:]}"
         for d in derivations
         if d.screen
@@ -539,6 +541,7 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
     design = design_of(spec, shape)
     if conservative:
         design = replace(design, ends="unfavourable")
+    assumptions = assumptions_for(spec, derivations, design)
     missing = missing_inputs(derivations, design)
     if not missing and "L" in case.volume.symbols and "L" not in design.values:
         raise InputError(
@@ -559,6 +562,7 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
             expression=expression,
             parsed_index=parsed,
             ranking_key=index_key,
+            assumptions=assumptions,
         )
     if conservative:
         notes.append(CONSERVATIVE_NOTE)
@@ -567,7 +571,7 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
     table = pd.concat([table, sized.reindex(table.index)], axis=1)
     table["feasible"] = table["feasible"].eq(True)
     if design.bounds:
-        table = _reject_out_of_bounds(table, design, spec.part.function)
+        table = reject_out_of_bounds(table, design, spec.part.function)
     unsized = alive & ~table["feasible"]
     table.loc[unsized, "status"] = REJECTED
     table.loc[unsized, "reasons"] = pd.Series(
@@ -587,7 +591,7 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
     else:
         table = rank_by_value(table, "objective", "objective_low", "objective_high")
         table, derivations = lead_with_governing(table, derivations)
-        table["index_with_shape"] = index_with_shape(table, derivations[0])
+        table[INDEX_WITH_SHAPE] = index_with_shape(table, derivations[0])
         ranked_by, key = objective, "objective"
     return Selection(
         spec,
@@ -602,19 +606,8 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
         design=design,
         parsed_index=parsed,
         ranking_key=key,
+        assumptions=assumptions,
     )
-
-
-def _reject_out_of_bounds(table: pd.DataFrame, design: Design, fn: str) -> pd.DataFrame:
-    """The table with every sized part that exceeds a ``[section]`` bound made infeasible, with why."""
-    table = table.copy()
-    radius = design.values.get("r", 0.0)
-    for i in table.index[table["feasible"]]:
-        why = bound_reasons(fn, design.shape, design.bounds, table.at[i, "dimensions"], radius)
-        if why:
-            table.at[i, "feasible"] = False
-            table.at[i, "size_warnings"] = [*table.at[i, "size_warnings"], *why]
-    return table
 
 
 def _select_sandwich(spec: Spec, materials: pd.DataFrame, conservative: bool, index: str | None) -> Selection:
@@ -670,7 +663,8 @@ def _select_sandwich(spec: Spec, materials: pd.DataFrame, conservative: bool, in
     result = replace(result, solid=best_solid(solid.shortlist, loads.max_depth))
     sized = int(result.pairs["feasible"].sum())
     note = f"sandwich: {sized} face × core pairs sized; the table holds the solid parts for comparison"
-    return replace(solid, spec=spec, sandwich=result, notes=(*solid.notes, note))
+    assumptions = (*result.assumptions, *(f"solid part: {a}" for a in solid.assumptions))
+    return replace(solid, spec=spec, sandwich=result, notes=(*solid.notes, note), assumptions=assumptions)
 
 
 __all__ = [
