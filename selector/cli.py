@@ -305,7 +305,9 @@ def _studies(selection: Selection, fmt: str) -> str:
     if selection.tradeoff is not None:
         study = selection.tradeoff
         parts.append(
-            render_tradeoff(study.front, study.second, fmt if fmt != "xlsx" else "table", study.exchange)
+            render_tradeoff(
+                study.front, study.second, fmt if fmt != "xlsx" else "table", study.exchange, study.note
+            )
         )
     if selection.robust_error is not None:
         raise selection.robust_error

@@ -99,13 +99,19 @@ def _sheet(
 
 
 def xlsx_bytes(selection: Any, units: str = "si") -> bytes:
-    """The workbook: shortlist, rejected classes, sized parts and the spec with its assumptions."""
+    """The workbook: shortlist, rejected classes, sized parts and the spec with its assumptions.
+
+    A sandwich's workbook starts with its pairs and the classes left out as face or core;
+    the solid parts follow as the shortlist.
+    """
     import io
 
     from openpyxl import Workbook
 
     workbook = Workbook()
     workbook.remove(workbook.active)
+    if selection.sandwich is not None:
+        _pairs_sheets(workbook, selection, units)
     short = flat_frame(selection, units)
     _sheet(workbook, "shortlist", list(short.columns), short.to_numpy(dtype=object).tolist(), ("reasons",))
     rejected = selection.rejected
@@ -129,10 +135,25 @@ def xlsx_bytes(selection: Any, units: str = "si") -> bytes:
             "the spec gives no loads to size parts"
         ]
         _sheet(workbook, "sized parts", ["note"], [[w] for w in why], ("note",))
-    _sheet(workbook, "spec", ["group", "field", "value"], [list(r) for r in spec_rows(selection)], ("value",))
+    rows = [list(r) for r in spec_rows(selection)]
+    if selection.sandwich is not None:
+        at = next(i for i, r in enumerate(rows) if r[0] == "caution")
+        rows[at:at] = [["assumption", "sandwich", a] for a in selection.sandwich.assumptions]
+    _sheet(workbook, "spec", ["group", "field", "value"], rows, ("value",))
     buffer = io.BytesIO()
     workbook.save(buffer)
     return buffer.getvalue()
+
+
+def _pairs_sheets(workbook: Any, selection: Any, units: str) -> None:
+    """A sandwich's sheets, first in the workbook: the ranked pairs, and the classes left out."""
+    from selector.outputs.sandwich_tables import flat_pairs
+
+    pairs = flat_pairs(selection, units)
+    _sheet(workbook, "pairs", list(pairs.columns), pairs.to_numpy(dtype=object).tolist(), ("warnings",))
+    excluded = selection.sandwich.excluded
+    header = ["id", "name", "role", "reason"]
+    _sheet(workbook, "left out", header, excluded[header].to_numpy(dtype=object).tolist(), ("reason",))
 
 
 def write_xlsx(selection: Any, path: Path, units: str = "si", protect: Sequence[str | Path] = ()) -> Path:
@@ -161,6 +182,11 @@ def write_selection(
     ensure_folder(path)
     if fmt == "xlsx":
         return write_xlsx(selection, Path(path), units, protect)
-    text = tables.render_selection(selection, fmt, units, top, show_all)
+    if selection.sandwich is not None:
+        from selector.outputs.sandwich_tables import render_sandwich
+
+        text = render_sandwich(selection, fmt, units, top)
+    else:
+        text = tables.render_selection(selection, fmt, units, top, show_all)
     write_text_atomic(Path(path), text + "\n")
     return Path(path)

@@ -241,6 +241,11 @@ def _screens_view(selection: Any) -> dict[str, Any]:
 
 def _robust_view(selection: Any) -> dict[str, Any] | None:
     """The odds table the Selection carries, or a note saying why there is none; None when not asked."""
+    if selection.sandwich is not None:
+        return {
+            "note": "not computed for a sandwich: its pairs are sized at the typical values of their "
+            "ranges (a conservative run sizes them at the unfavourable ends instead)"
+        }
     if selection.robust is None and selection.robust_error is None:
         return None
     if selection.shortlist.empty:
@@ -308,11 +313,15 @@ def _tradeoff_view(selection: Any) -> dict[str, Any]:
     try:
         from selector.outputs.charts import tradeoff_chart
 
-        points = selection.shortlist
-        points = points[points["feasible"]]
-        points = points.assign(
-            **{f"{first}_low": points["objective_low"], f"{first}_high": points["objective_high"]}
-        )
+        points = selection.tradeoff.points  # sandwich pairs, at their typical values
+        what = "sized face × core pairs"
+        if points is None:
+            points = selection.shortlist
+            points = points[points["feasible"]]
+            points = points.assign(
+                **{f"{first}_low": points["objective_low"], f"{first}_high": points["objective_high"]}
+            )
+            what = "sized parts"
         chart = tradeoff_chart(
             points,
             first,
@@ -320,7 +329,7 @@ def _tradeoff_view(selection: Any) -> dict[str, Any]:
             front_ids=[str(i) for i in front["id"]],
             x_title=f"{first} ({OBJECTIVE_UNITS[first]})",
             y_title=f"{other} ({OBJECTIVE_UNITS[other]})",
-            title=f"Trade-off: {other} against {first} of the sized parts",
+            title=f"Trade-off: {other} against {first} of the {what}",
         )
     except (ImportError, SelectorError) as exc:
         chart = {"note": f"the trade-off chart could not be drawn: {exc}"}
@@ -331,6 +340,7 @@ def _tradeoff_view(selection: Any) -> dict[str, Any]:
         "y_unit": OBJECTIVE_UNITS[other],
         "rows": rows,
         "chart": chart,
+        "assumes": selection.tradeoff.note,
     }
 
 

@@ -1,4 +1,4 @@
-"""The sandwich pairs as tables: terminal, Markdown, CSV and JSON.
+"""The sandwich pairs as tables: terminal, Markdown, CSV, JSON and the flat frame of spreadsheets.
 
 Reads ``Selection.sandwich`` and the solid parts beside it; converts units, computes nothing.
 """
@@ -10,6 +10,8 @@ from typing import Any
 
 import pandas as pd
 
+from selector.mechanics.sandwich import MODES
+from selector.outputs.cells import csv_text
 from selector.outputs.tables import _LENGTH_FACTOR, _MASS_FACTOR, LENGTH_UNIT, MASS_UNIT, _json_value, render
 
 
@@ -108,16 +110,29 @@ def _json(selection: Any, units: str, top: int | None) -> str:
     return json.dumps(out, indent=2, allow_nan=False)
 
 
+def flat_pairs(selection: Any, units: str = "si", top: int | None = None) -> pd.DataFrame:
+    """The pairs with one ``utilisation_<mode>`` column per failure mode, warnings joined, the caution.
+
+    For CSV and spreadsheets: one value per cell, units in the headers.
+    """
+    frame = pairs_frame(selection, units, top)
+    flat = frame.drop(columns=["utilisation", "warnings"])
+    at = flat.columns.get_loc("governing")
+    for offset, mode in enumerate(MODES):
+        values = [u.get(mode) for u in frame["utilisation"]]
+        flat.insert(at + offset, f"utilisation_{mode}", pd.array(values, dtype="Float64").astype(float))
+    flat["warnings"] = ["; ".join(w) for w in frame["warnings"]]
+    flat["caution"] = selection.caution
+    return flat
+
+
 def render_sandwich(selection: Any, fmt: str, units: str = "si", top: int | None = None) -> str:
     """The ranked pairs in the chosen format; the table form adds the solid part, assumptions and caution."""
     if fmt == "json":
         return _json(selection, units, top)
-    frame = pairs_frame(selection, units, top)
     if fmt == "csv":
-        flat = frame.drop(columns=["utilisation", "warnings"])
-        for mode in selection.sandwich.pairs["utilisation"].iloc[0] if len(frame) else ():
-            flat[f"utilisation_{mode}"] = [u[mode] for u in frame["utilisation"]]
-        return flat.to_csv(index=False).rstrip("\n")
+        return csv_text(flat_pairs(selection, units, top))
+    frame = pairs_frame(selection, units, top)
     result = selection.sandwich
     shown = frame.drop(columns=["face", "core"]).assign(
         utilisation=[_utilisation_text(u) for u in frame["utilisation"]]

@@ -27,28 +27,32 @@ def _display(frame: pd.DataFrame) -> pd.DataFrame:
 
 
 def render_tradeoff(
-    front: pd.DataFrame, second: pd.DataFrame, fmt: str = "table", exchange: float | str | None = None
+    front: pd.DataFrame,
+    second: pd.DataFrame,
+    fmt: str = "table",
+    exchange: float | str | None = None,
+    note: str = "",
 ) -> str:
     """The two frames of ``tradeoff_report`` as text (table, md, csv or json).
 
     ``csv`` gives the second frame only (it carries the front members' values);
-    ``json`` gives one object with both.
+    ``json`` gives one object with both. ``note`` is what the study assumes (shown above
+    the tables, and as ``note`` in JSON).
     """
     kind = "penalty" if "penalty" in second else "ranges"
     if fmt == "json":
-        return json.dumps(
-            {
-                "front": json.loads(render(_display(front), "json")),
-                kind: json.loads(render(_display(second), "json")),
-            },
-            indent=2,
-        )
+        doc = {
+            "front": json.loads(render(_display(front), "json")),
+            kind: json.loads(render(_display(second), "json")),
+        }
+        return json.dumps(doc | ({"note": note} if note else {}), indent=2)
     if fmt == "csv":
         return render(_display(second), "csv")
     body = "md" if fmt == "md" else "table"
     objectives = [c for c in front.columns if c in OBJECTIVE_UNITS or is_index_column(c)]
     lines = [
         f"Pareto front ({' vs '.join(objectives)}; all minimised): {len(front)} members",
+        *([f"note: {note}"] if note else []),
         "",
         render(_display(front), body),
         "",

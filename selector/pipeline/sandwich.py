@@ -528,6 +528,31 @@ def sandwich_loads(
     )
 
 
+PAIRS_SIZED_FOR = (
+    "each pair keeps the thicknesses that minimise {first}; sized for {other} instead, a pair "
+    "could sit lower on the {other} axis"
+)
+"""What a trade-off among sandwich pairs assumes ({first}: the ranked objective)."""
+
+
+def pair_candidates(result: SandwichResult) -> pd.DataFrame:
+    """The feasible pairs as candidates of a trade-off, best first.
+
+    Columns: ``id`` (face+core), ``name`` ("face on core"), ``family`` (the face's),
+    ``rank``, mass, cost, co2, volume, ``t_face`` and ``t_core`` [m].
+    """
+    pairs = result.feasible
+    return pd.DataFrame(
+        {
+            "id": pairs["face"] + "+" + pairs["core"],
+            "name": pairs["face_name"] + " on " + pairs["core_name"],
+            "family": pairs["face_family"],
+            "rank": pairs["rank"].astype(int),
+            **{k: pairs[k] for k in ("mass", "cost", "co2", "volume", "t_face", "t_core")},
+        }
+    )
+
+
 def best_solid(shortlist: pd.DataFrame, max_depth: float) -> dict[str, object] | None:
     """The best-ranked solid part of the solid shortlist whose thickness h [m] is within ``max_depth``."""
     for row in shortlist.itertuples(index=False):

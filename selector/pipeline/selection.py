@@ -28,9 +28,11 @@ from selector.pipeline.rank import monomial_index, rank_by_index, rank_by_value,
 from selector.pipeline.robust import RobustResult, robustness
 from selector.pipeline.robust import sensitivity as robust_sensitivity
 from selector.pipeline.sandwich import (
+    PAIRS_SIZED_FOR,
     SANDWICH_FREE,
     SandwichResult,
     best_solid,
+    pair_candidates,
     sandwich_loads,
     size_pairs,
 )
@@ -425,8 +427,20 @@ def studies(
         try:
             front, second = tradeoff_report(selection, tradeoff, exchange)
             found["tradeoff"] = TradeoffStudy(tradeoff, exchange, front, second)
+            if selection.sandwich is not None:
+                note = PAIRS_SIZED_FOR.format(first=selection.spec.objective.minimize, other=tradeoff)
+                points = pair_candidates(selection.sandwich)
+                found["tradeoff"] = TradeoffStudy(tradeoff, exchange, front, second, points, note)
         except SelectorError as exc:
             found["tradeoff_error"] = exc
+    if robust is not None and selection.sandwich is not None:
+        found["robust_error"] = InputError(
+            "--robust",
+            "the Monte Carlo odds rank solid parts; sandwich pairs are sized at the typical values "
+            "of their ranges only",
+            "--conservative to size every pair at the unfavourable ends of its ranges",
+        )
+        robust = None
     if robust is not None:
         try:
             found["robust"] = robustness(selection, draws=robust, seed=seed, distribution=distribution)

@@ -340,6 +340,10 @@ class TradeoffStudy:
     exchange: float | str | None
     front: pd.DataFrame = field(compare=False)
     second: pd.DataFrame = field(compare=False)
+    points: pd.DataFrame | None = field(default=None, compare=False)
+    """The candidates the front was taken from when they are not the shortlist (sandwich pairs)."""
+    note: str = ""
+    """What the study assumes, when it is worth saying (e.g. how sandwich pairs were sized)."""
 
 
 def tradeoff_report(
@@ -348,7 +352,8 @@ def tradeoff_report(
     """The front of the ranked objective against ``other``, and how to choose on it.
 
     Args:
-        selection: a sized Selection.
+        selection: a sized Selection; for a sandwich, its feasible face × core pairs
+            (``sandwich.pair_candidates``) take the place of the shortlist.
         other: the second objective (mass, cost, co2 or volume).
         exchange: an exchange constant pricing the non-cost objective in USD
             ("40 USD/kg", or a number in USD per kg, kg CO2e or m³); needs cost
@@ -375,19 +380,24 @@ def tradeoff_report(
             f"a second objective other than {first}: one of "
             + ", ".join(o for o in OBJECTIVE_UNITS if o != first),
         )
-    table = pareto_table(selection, (first, other))
+    source = selection
+    if getattr(selection, "sandwich", None) is not None:
+        from selector.pipeline.sandwich import pair_candidates
+
+        source = pair_candidates(selection.sandwich)
+    table = pareto_table(source, (first, other))
     front = table[table["on_front"]].drop(columns="on_front").reset_index(drop=True)
     # Z = y + α·x: α prices x in units of y (USD when y is cost).
     x, y = (first, other) if "cost" not in (first, other) else (first if other == "cost" else other, "cost")
     if exchange is None:
-        return front, exchange_ranges(selection, x=x, y=y)
+        return front, exchange_ranges(source, x=x, y=y)
     if y != "cost":
         raise InputError(
             "--exchange",
             f"an exchange constant prices in USD, but neither {first} nor {other} is cost",
             "trade off against cost (--tradeoff cost)",
         )
-    ranked = penalty(selection, {x: _exchange_value(x, exchange, "--exchange")})
+    ranked = penalty(source, {x: _exchange_value(x, exchange, "--exchange")})
     on = table.set_index("id")["on_front"]
     ranked["on_front"] = ranked["id"].map(on).fillna(False).astype(bool)
     return front, ranked

@@ -122,3 +122,11 @@ def test_us_units_relabel_the_pairs(hatch):
 def test_pairs_chart_is_embedded(page):
     assert page.text("figure-sandwich")
     assert "chart-sandwich" in page.ids
+
+
+def test_report_studies_of_a_sandwich_cover_the_pairs(hatch):
+    page = parse(report.build_report(report_studies(hatch, 100)))
+    front = page.tables["keep"]
+    assert any(" on " in cell for row in front for cell in row), "the trade-off lists face × core pairs"
+    assert page.text("tradeoff-assumes").startswith("Assumed: each pair keeps the thicknesses")
+    assert "not computed for a sandwich" in page.text("robustness")
