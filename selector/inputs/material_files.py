@@ -15,6 +15,7 @@ from __future__ import annotations
 import csv
 import difflib
 import io
+import math
 import tomllib
 from collections.abc import Mapping
 from pathlib import Path
@@ -39,12 +40,14 @@ from selector.inputs.material_report import (
     finish,
 )
 from selector.inputs.properties import (
+    MISSING_HINT,
     NOT_APPLICABLE,
     PROPERTIES,
     RATING_LEVELS,
     RATINGS,
     TEXT_COLUMNS,
     Property,
+    misspelt_missing,
 )
 from selector.suggest import did_you_mean
 
@@ -213,6 +216,12 @@ def _toml_quantity(value: Any, prop: Property, where: str) -> tuple[float, Probl
                 where, f"{NOT_APPLICABLE!r} given, but {prop.name} applies to every class", example
             )
         return np.nan, None
+    if isinstance(value, str) and misspelt_missing(value):
+        if prop.core:
+            return np.nan, Problem(where, f"{shown(value)} is not a quantity", example)
+        return np.nan, Problem(where, f"{shown(value)} is not how a missing value is written", MISSING_HINT)
+    if isinstance(value, float) and not math.isfinite(value):
+        return np.nan, Problem(where, f"{shown(value)} is not a finite number", example)
     if isinstance(value, bool) or not isinstance(value, str | int | float):
         return np.nan, Problem(where, f"{shown(value)} is not a quantity", example)
     if optional and (not isinstance(value, str) or NUMBER.fullmatch(value.strip())):

@@ -32,7 +32,15 @@ from selector.inputs.material_report import (
     example,
     finish,
 )
-from selector.inputs.properties import NOT_APPLICABLE, PROPERTIES, RATINGS, TEXT_COLUMNS, Property
+from selector.inputs.properties import (
+    MISSING_HINT,
+    NOT_APPLICABLE,
+    PROPERTIES,
+    RATINGS,
+    TEXT_COLUMNS,
+    Property,
+    misspelt_missing,
+)
 
 _HEADER = re.compile(r"^\s*([^\[\]]*?)\s*(?:\[([^\[\]]*)\])?\s*$")
 
@@ -300,7 +308,11 @@ def _number_cells(
     else:
         expected = f"expected a number{unit_words}, or '{NOT_APPLICABLE}' if it does not apply"
     for pos in np.flatnonzero(text).tolist():
-        report.cell(pos, col, f"{column.iat[pos]!r} is not a number", expected)
+        cell = column.iat[pos]
+        if misspelt_missing(cell) and not prop.core:
+            report.cell(pos, col, f"{cell!r} is not how a missing value is written", MISSING_HINT)
+        else:
+            report.cell(pos, col, f"{cell!r} is not a number", expected)
     bad_na = na & prop.core
     for pos in np.flatnonzero(bad_na).tolist():
         report.cell(

@@ -260,7 +260,20 @@ RATING_LEVELS: tuple[str, ...] = ("poor", "fair", "good", "excellent")
 """Our rating scale, worst to best."""
 
 NOT_APPLICABLE = "n/a"
-"""Written in a data cell where a property truly does not apply to a class."""
+"""The one spelling of "no value" in a data cell or field: the property does not apply to the
+class, or its value is unknown (an empty CSV cell or a TOML field left out mean the same)."""
+
+OTHER_MISSING_WORDS = frozenset({"", "na", "n.a.", "nan", "none", "null", "nil", "unknown", "-", "--", "?"})
+"""Other ways people write "no value" (compared without case); refused with a pointer to n/a."""
+
+
+def misspelt_missing(text: str) -> bool:
+    """True when ``text`` means "no value" but is not written ``n/a`` (N/A, NaN, none, -, ...)."""
+    word = text.strip().lower()
+    return text.strip() != NOT_APPLICABLE and (word in OTHER_MISSING_WORDS or word in ("n/a", "#n/a"))
+
+
+MISSING_HINT = f"write {NOT_APPLICABLE!r} for a value that is unknown or does not apply"
 
 HIGH_IS_UNFAVOURABLE = frozenset({"rho", "price", "co2", "energy"})
 """Properties whose high end is the unfavourable one when a part is sized (for the rest, the low end)."""

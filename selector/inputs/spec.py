@@ -16,6 +16,7 @@ from pydantic import AfterValidator, BaseModel, ConfigDict, Field, ValidationErr
 from selector.errors import InputError, SpecError
 from selector.inputs.limits import check_range, check_toml_text
 from selector.inputs.properties import FAMILIES, PROPERTIES, RATINGS
+from selector.inputs.spec_keys import key_problems
 from selector.mechanics.failure_modes import CRITERIA
 from selector.mechanics.loadcases import CONSTRAINTS, FREE_VARIABLES, FUNCTIONS
 from selector.mechanics.objectives import OBJECTIVES
@@ -34,6 +35,11 @@ QUANTITY_FIELDS: dict[str, str] = {
     "radius": "m",
 }
 DIMENSION_FIELDS = ("b", "h", "d", "t", "tf", "tw")
+QUANTITY_KEYS = frozenset(
+    {*QUANTITY_FIELDS, *DIMENSION_FIELDS, "min_wall", "max_depth", "max_width", "max_diameter"}
+    | {"max_deflection", "max_twist", "crack_length", "min_frequency", "min_face", "min_core"}
+)
+"""Keys whose value is a quantity: text with a number and its unit."""
 
 
 def _one_of(choices: tuple[str, ...], noun: str) -> AfterValidator:
@@ -116,15 +122,15 @@ class Constraint(_Strict):
     max_twist: str | None = None
     safety_factor: float = Field(default=1.0, gt=0, allow_inf_nan=False, strict=True)
     crack_length: str | None = None
-    geometry_factor: float | None = Field(default=None, gt=0, allow_inf_nan=False)
+    geometry_factor: float | None = Field(default=None, gt=0, allow_inf_nan=False, strict=True)
     criterion: Annotated[str, _one_of(CRITERIA, "a fracture criterion")] | None = None
-    load_ratio: float | None = Field(default=None, ge=-1, lt=1, allow_inf_nan=False)
+    load_ratio: float | None = Field(default=None, ge=-1, lt=1, allow_inf_nan=False, strict=True)
     min_frequency: str | None = None
 
 
 class Materials(_Strict):
     files: list[str] = Field(default_factory=list)
-    builtin: bool = True
+    builtin: bool = Field(default=True, strict=True)
 
 
 SCREEN_KEYS = (*PROPERTIES, *RATINGS, "families", "exclude_families", "exclude", "allow_brittle")
@@ -207,9 +213,19 @@ def _problem(error: Any, source: str) -> InputError:
         return InputError(where, f"unknown key {key!r}", did_you_mean(key, _fields_of(Spec, loc)), loc)
     if error["type"] == "missing":
         return InputError(where, "required field is missing", "see examples/", loc)
+    value = error.get("input")
     if error["type"] == "float_type":  # strict numbers: true/false and quoted text are refused
-        value = error.get("input")
         return InputError(where, f"{value!r} is not a number", "a plain number such as 1.5, unquoted", loc)
+    if error["type"] == "bool_type":
+        return InputError(where, f"{value!r} is not true or false", "true or false, unquoted", loc)
+    if error["type"] == "string_type" and loc and loc[-1] in QUANTITY_KEYS:
+        return InputError(
+            where, f"{value!r} is not a quantity", 'a number and its unit in quotes, e.g. "1.2 m"', loc
+        )
+    if error["type"] == "string_type":
+        return InputError(where, f"{value!r} is not text", "text in quotes", loc)
+    if error["type"] == "finite_number":
+        return InputError(where, f"{value!r} is not a finite number", "a plain number such as 1.5", loc)
     message = error["msg"].removeprefix("Value error, ")
     what, _, expected = message.partition("; ")
     if not expected:
@@ -218,15 +234,22 @@ def _problem(error: Any, source: str) -> InputError:
 
 
 def spec_from_dict(data: dict[str, Any], source: str = "spec") -> Spec:
-    """Validate a spec given as nested dicts.
+    """Validate a spec given as nested dicts; a key its function, shape or constraint does not
+    read is a problem too (``spec_keys``).
 
     Raises:
         SpecError: listing every problem found, each with its field path and location.
     """
+    unread = key_problems(data, source) if isinstance(data, dict) else []
     try:
-        return Spec.model_validate(data)
+        spec = Spec.model_validate(data)
     except ValidationError as exc:
-        raise SpecError([_problem(e, source) for e in exc.errors()]) from None
+        problems = [_problem(e, source) for e in exc.errors()]
+        seen = {p.location for p in problems}
+        raise SpecError(problems + [p for p in unread if p.location not in seen]) from None
+    if unread:
+        raise SpecError(unread)
+    return spec
 
 
 def _beside(spec: Spec, folder: Path) -> Spec:

@@ -15,13 +15,10 @@ import pandas as pd
 
 from selector.errors import InputError
 from selector.inputs.properties import DERIVED_PROPERTIES, PROPERTIES, property_of
+from selector.inputs.spec_keys import CONSTRAINT_KEYS
 from selector.mechanics import failure_modes as fm
 
-FIELDS_OF_TYPE: dict[str, tuple[str, ...]] = {
-    "fracture": ("crack_length", "geometry_factor", "criterion"),
-    "fatigue": ("load_ratio",),
-    "frequency": ("min_frequency",),
-}
+FIELDS_OF_TYPE: dict[str, tuple[str, ...]] = {t: CONSTRAINT_KEYS[t] for t in fm.FAILURE_CONSTRAINTS}
 """The fields each failure-mode constraint accepts (beside ``safety_factor``)."""
 MADE_OF: dict[str, tuple[str, ...]] = {"sigma_R": ("sigma_e", "sigma_ts")}
 """Stored properties each derived property is computed from."""

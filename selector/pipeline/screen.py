@@ -6,6 +6,7 @@ its range does) or is *rejected*; every reason is kept.
 
 from __future__ import annotations
 
+import math
 import re
 from collections.abc import Mapping
 from dataclasses import dataclass
@@ -15,6 +16,8 @@ import numpy as np
 import pandas as pd
 
 from selector.errors import InputError
+from selector.inputs.limits import finite_float
+from selector.inputs.material_report import NUMBER
 from selector.inputs.properties import PROPERTIES, RATING_LEVELS, RATINGS
 from selector.inputs.units import format_number
 
@@ -68,14 +71,16 @@ def parse_limit(symbol: str, text: str, where: str = "screen") -> Limit:
             raise InputError(loc, f"{raw!r} is not a rating", f"one of: {', '.join(RATING_LEVELS)}")
         return Limit(symbol, op, float(RATING_LEVELS.index(raw)), text)
     prop = PROPERTIES[symbol]
-    if prop.stored in ("dimensionless", "percent"):
-        try:
-            return Limit(symbol, op, float(raw.rstrip("%").strip()), text)
-        except ValueError:
-            pass
-    from selector.inputs.units import magnitude_in
+    number = raw.rstrip("%").strip()
+    if prop.stored in ("dimensionless", "percent") and NUMBER.fullmatch(number):
+        value = finite_float(number)
+    else:
+        from selector.inputs.units import magnitude_in
 
-    return Limit(symbol, op, magnitude_in(raw, prop.stored, loc), text)
+        value = magnitude_in(raw, prop.stored, loc)
+    if value is None or not math.isfinite(value):
+        raise InputError(loc, f"the limit in {text!r} is not a finite number", 'e.g. ">= 60 degC"')
+    return Limit(symbol, op, value, text)
 
 
 def parse_screens(screen: Mapping[str, Any], where: str = "screen") -> Screens:

@@ -417,9 +417,8 @@ CASES = [
     (
         {"alpha [1e-6/K]": "nan"},
         {},
-        "row 2, column alpha: 'nan' is not a number; expected a number in 1e-6/K, 'n/a' if it "
-        "does not apply, "
-        "or empty if unknown",
+        "row 2, column alpha: 'nan' is not how a missing value is written; write 'n/a' for a "
+        "value that is unknown or does not apply",
     ),
     (
         {"E_low [GPa]": ""},

@@ -6,6 +6,7 @@ import pytest
 
 from selector.errors import InputError
 from selector.inputs.spec import spec_from_dict
+from selector.inputs.spec_keys import PART_KEYS
 from selector.pipeline.selection import select
 from tests.conftest import make_table
 
@@ -120,6 +121,7 @@ def test_a_shape_the_function_does_not_use_is_an_error(function, shape, expected
         "pressure": "1 MPa",
         "energy": "5 J",
     }
+    part = {k: v for k, v in part.items() if k == "function" or k in PART_KEYS[function]}
     free = {"plate": "thickness", "cylinder": "wall", "spring": "scale", "panel": "thickness"}[function]
     spec = spec_from_dict(
         {"part": part, "section": {"shape": shape, "free": free}, "constraint": [{"type": "strength"}]}

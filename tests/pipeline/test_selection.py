@@ -128,12 +128,6 @@ def test_free_none_needs_dimensions():
         ),
         (
             {},
-            {},
-            {"type": "stiffness", "max_twist": "1 deg"},
-            "constraint[0].max_twist: max_twist does not apply to the stiffness constraint of a beam",
-        ),
-        (
-            {},
             {"shape": "tube", "free": "none", "d": "40 mm"},
             {"type": "strength"},
             "section tube: t: no value given",

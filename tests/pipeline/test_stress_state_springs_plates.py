@@ -99,8 +99,9 @@ def test_elastomer_spring_is_held_to_its_elongation_with_the_safety_factor():
     assert row["stress"] / 2e6 == pytest.approx(4.0)
 
 
-def test_form_on_a_beam_is_an_error():
-    with pytest.raises(InputError, match="form applies to a spring"):
+def test_form_on_a_tie_is_an_error():
+    message = "form does not apply to a tie; a tie takes: function, length, force"
+    with pytest.raises(InputError, match=message):
         select(
             _spec(
                 {"function": "tie", "length": "1 m", "force": "1 kN", "form": "coil"}, [{"type": "strength"}]
