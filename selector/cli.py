@@ -142,7 +142,7 @@ def materials_check(file: str, fmt: str | None) -> None:
 
 @cli.command()
 @click.argument("function")
-@click.option("--objective", default="mass", show_default=True, help="mass | cost | co2 | volume")
+@click.option("--objective", default="mass", show_default=True, help="mass | cost | co2 | energy | volume")
 @click.option(
     "--constraint",
     default="stiffness",
@@ -191,7 +191,10 @@ def derive(
 @click.option("--top", type=click.IntRange(min=1), default=None, help="Show the best N only.")
 @click.option("--all", "show_all", is_flag=True, help="Also list the rejected classes with reasons.")
 @click.option(
-    "--tradeoff", "other", default=None, help="Second objective for a Pareto front: mass|cost|co2|volume."
+    "--tradeoff",
+    "other",
+    default=None,
+    help="Second objective for a Pareto front: mass|cost|co2|energy|volume.",
 )
 @click.option("--exchange", default=None, help='Value of the ranked objective saved, e.g. "40 USD/kg".')
 @click.option(

@@ -8,7 +8,8 @@ product form of each family, no source, unless a source is named:
   aluminium and magnesium castings 2.5 mm and 2 mm, zinc die castings 1 mm);
 * composites: a laminate of four plies of about 0.125 mm, 0.5 mm;
 * polymers and elastomers: injection mouldings and extrusions, 1 mm;
-* natural: timber sections and plywood, 3 mm; paper and board 0.3 mm;
+* metals: hot-rolled structural sections and plate, 3 mm;
+* natural: timber sections, plywood and MDF, 3 mm; particle board 6 mm; paper and board 0.3 mm;
 * foams: 10 mm blocks and cores;
 * ceramics 1 mm and glasses 2 mm (pressed or drawn plate);
 * minerals (stone, masonry, concrete): 20 mm.
@@ -37,6 +38,8 @@ CLASS_MIN_WALL: dict[str, float] = {
     "al-cast": 2.5e-3,
     "mg-cast": 2.0e-3,
     "zinc-die-cast": 1.0e-3,
+    "structural-steel": 3.0e-3,
+    "particle-board": 6.0e-3,
     "paper-board": 0.3e-3,
     "concrete-aerated": 50e-3,
 }

@@ -274,6 +274,7 @@ def column_headers(selection: Any, units: str = "si") -> dict[str, str]:
         columns.MASS: header(columns.MASS, mu),
         columns.COST: header(columns.COST, "USD"),
         columns.CO2: header(columns.CO2, f"{mu} CO2e"),
+        columns.ENERGY: header(columns.ENERGY, "MJ"),
         columns.DEFLECTION: header(columns.DEFLECTION, lu),
         columns.TWIST: header(columns.TWIST, ANGLE_UNIT),
         columns.STRESS: header(columns.STRESS, _STRESS[units][0]),
@@ -285,7 +286,7 @@ def sized_value_headers(selection: Any, units: str = "si") -> list[str]:
     if not selection.has_sizes:
         return []
     heads = column_headers(selection, units)
-    return [heads[c] for c in columns.SIZED_VALUES]
+    return [heads[c] for c in columns.sized_values(selection.spec.objective.minimize)]
 
 
 def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -> pd.DataFrame:
@@ -322,6 +323,8 @@ def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -
         out[heads[columns.MASS]] = table[columns.MASS].where(feasible) * mf
         out[heads[columns.COST]] = table[columns.COST].where(feasible)
         out[heads[columns.CO2]] = table[columns.CO2].where(feasible) * mf
+        if columns.ENERGY in columns.sized_values(selection.spec.objective.minimize):
+            out[heads[columns.ENERGY]] = table[columns.ENERGY].where(feasible)
         out[heads[columns.DEFLECTION]] = table[columns.DEFLECTION].where(feasible) * lf
         if columns.TWIST in table and table[columns.TWIST].notna().any():
             out[heads[columns.TWIST]] = np.degrees(table[columns.TWIST].where(feasible))
@@ -461,8 +464,9 @@ def _compact(frame: pd.DataFrame, units: str, heads: dict[str, str], ranking_key
             " ".join(f"{k}={format_number(v)}" for k, v in d.items()) if isinstance(d, dict) else "–"
             for d in frame["dimensions"]
         ]
-        for value in columns.SIZED_VALUES:
-            out[heads[value]] = frame[heads[value]]
+        for value in (*columns.SIZED_VALUES, columns.ENERGY):
+            if heads[value] in frame:
+                out[heads[value]] = frame[heads[value]]
         governing = frame["governing"].fillna("–")
         if "governing_index" in frame:
             governing = [

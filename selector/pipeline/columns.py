@@ -30,6 +30,8 @@ DIMENSIONS = "dimensions"
 MASS = "mass"
 COST = "cost"
 CO2 = "co2"
+ENERGY = "energy"
+"""Embodied energy of the sized part [MJ] (the property ``energy`` is per kilogram)."""
 VOLUME = "volume"
 DEFLECTION = "deflection"
 TWIST = "twist"
@@ -45,6 +47,12 @@ OBJECTIVE = "objective"
 
 SIZED_VALUES = (MASS, COST, CO2)
 """The per-part totals every output shows beside a sized part."""
+
+
+def sized_values(objective: str) -> tuple[str, ...]:
+    """The per-part totals shown beside a sized part: ``SIZED_VALUES``, and the embodied
+    energy when it is the objective."""
+    return (*SIZED_VALUES, ENERGY) if objective == ENERGY else SIZED_VALUES
 
 _CONSTRAINT_INDEX = "index_"
 

@@ -56,6 +56,7 @@ SIZED_COLUMNS = (
     columns.MASS,
     columns.COST,
     columns.CO2,
+    columns.ENERGY,
     columns.VOLUME,
     columns.DEFLECTION,
     columns.TWIST,
@@ -410,6 +411,7 @@ def _one_part(
         "mass": mass,
         "cost": mass * props["price"],
         "co2": mass * props["co2"],
+        "energy": mass * props["energy"] * 1e-6,  # MJ (the property is J/kg in SI)
         "volume": volume,
         "deflection": responses.get("deflection", float("nan")),
         "twist": responses.get("twist", float("nan")),

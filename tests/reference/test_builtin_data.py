@@ -234,6 +234,48 @@ def test_concrete_matches_eurocode_2_table_3_1(table):
     assert _contains(table, "concrete", "E", 30) and _contains(table, "concrete", "E", 37)
 
 
+def test_structural_steel_matches_en_10025_2_and_eurocode_3(table):
+    # EN 10025-2 (from memory): minimum yield ReH 275 MPa (S275) and 355 MPa (S355) for
+    # thicknesses up to 16 mm; tensile strength 410-560 MPa (S275) and 470-630 MPa (S355).
+    assert _range(table, "structural-steel", "sigma_y") == (275, 355)
+    assert _range(table, "structural-steel", "sigma_ts") == (410, 630)
+    # EN 1993-1-1 §3.2.6 (from memory): E = 210 GPa, G ≈ 81 GPa, nu = 0.3, alpha = 12e-6/K.
+    for symbol, value in (("E", 210), ("G", 81), ("nu", 0.3), ("alpha", 12)):
+        assert _contains(table, "structural-steel", symbol, value), symbol
+
+
+def test_spring_wire_matches_en_10270_1_and_en_13906_1(table):
+    # EN 10270-1 (from memory): patented drawn wire, about 2400 MPa at 1 mm (grade DH)
+    # down to about 1300 MPa at 10 mm (grade SL).
+    assert _contains(table, "spring-steel-wire", "sigma_ts", 2400)
+    assert _contains(table, "spring-steel-wire", "sigma_ts", 1300)
+    # EN 13906-1 (from memory): E = 206 GPa and G = 81.5 GPa for patented drawn wire.
+    assert _contains(table, "spring-steel-wire", "E", 206)
+    assert _contains(table, "spring-steel-wire", "G", 81.5)
+
+
+@pytest.mark.parametrize(
+    ("class_id", "least_mor", "least_moe"),
+    [
+        # EN 622-5 (from memory): MDF for general use in dry conditions, 12-19 mm: MOR >= 20 MPa,
+        # MOE >= 2200 MPa.
+        ("mdf", 20, 2.2),
+        # EN 312 (from memory): type P2 (general, dry), 13-20 mm: MOR >= 11 MPa, MOE >= 1600 MPa.
+        ("particle-board", 11, 1.6),
+    ],
+)
+def test_wood_panels_start_at_their_standards_least_values(table, class_id, least_mor, least_moe):
+    # the bending strength is stored as sigma_ts, the end of the linear response below it
+    assert _range(table, class_id, "sigma_ts")[0] <= least_mor * 1.1
+    assert _range(table, class_id, "E")[0] == least_moe
+    assert _range(table, class_id, "sigma_y")[1] < _range(table, class_id, "sigma_ts")[1]
+
+
+def test_mdf_density_is_that_of_en_316(table):
+    # EN 316 (from memory): MDF 650-800 kg/m^3 (lighter boards are light MDF, denser ones HDF).
+    assert _range(table, "mdf", "rho") == (650, 800)
+
+
 # ------------------------------------------------------------ densities of polymers
 
 # (class id, rho kg/m^3); Callister & Rethwisch Appendix B, Table B.1 (from memory).
