@@ -12,8 +12,7 @@ from collections.abc import Mapping
 from typing import Any
 
 from selector.errors import InputError, Location
-from selector.mechanics.failure_modes import VESSELS
-from selector.mechanics.loadcases import FUNCTIONS
+from selector.mechanics.loadcases import FUNCTIONS, part_kind
 
 PART_KEYS: dict[str, tuple[str, ...]] = {
     "tie": ("length", "force"),
@@ -30,9 +29,6 @@ PART_KEYS: dict[str, tuple[str, ...]] = {
 
 The quantities are those its load case's equations hold (``tests`` check the two agree);
 a panel's width is the b of its rectangular section."""
-
-SECTION_FUNCTIONS = ("tie", "beam", "column", "shaft")
-"""Functions sized through a cross-section shape, whose dimensions are the shape's."""
 
 DIMENSIONS_OF_FUNCTION: dict[str, tuple[str, ...]] = {
     "panel": ("b", "t"),
@@ -114,7 +110,7 @@ def _section_problems(
     free = section.get("free", "scale")
     if not isinstance(shape, str) or shape == "sandwich":
         return []  # a sandwich's section is checked with its [sandwich] table
-    if fn in SECTION_FUNCTIONS:
+    if part_kind(fn).takes_section:  # its dimensions are the shape's
         if shape not in (*SHAPES, "generic"):
             return []  # refused with the shapes that are sized
         dims = SHAPES["rectangle" if shape == "generic" else shape]
@@ -143,7 +139,7 @@ def _section_problems(
             )
         )
     if "min_wall" in section:
-        walled = fn in ("cylinder", "sphere", "plate") or free in ("thickness", "wall")
+        walled = part_kind(fn).own_dimension == "t" or free in ("thickness", "wall")
         if not walled or free == "none":
             out.append(
                 _problem(
@@ -165,7 +161,7 @@ def _constraint_problems(constraints: list[Any], fn: str | None, source: str) ->
         keys = list(CONSTRAINT_KEYS[kind])
         if kind == "stiffness" and fn is not None:
             keys = ["max_twist" if fn == "shaft" else "max_deflection"]
-        if kind == "fracture" and fn is not None and fn not in VESSELS:
+        if kind == "fracture" and fn is not None and not part_kind(fn).vessel:
             keys.remove("criterion")
         for key in item:
             if key in _OWN_KEYS and key not in keys:

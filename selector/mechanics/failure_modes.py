@@ -25,7 +25,6 @@ from selector.mechanics.monomial import Monomial as M
 FAILURE_CONSTRAINTS = ("fracture", "fatigue", "frequency")
 CRITERIA = ("leak-before-break", "yield-before-break")
 """Fracture criteria for pressure vessels (a crack as deep as the wall; yield before fast fracture)."""
-VESSELS = ("cylinder", "sphere")
 
 DEFAULT_GEOMETRY_FACTOR = 1.12
 """Y for an edge crack in a wide plate (Tada, Paris & Irwin, *The Stress Analysis of Cracks

@@ -27,6 +27,7 @@ from selector.suggest import did_you_mean
 FREE_VARIABLES = ("scale", "depth", "width", "thickness", "wall", "none", "faces-and-core")
 
 FUNCTIONS = ("tie", "beam", "column", "shaft", "panel", "plate", "cylinder", "sphere", "spring")
+SECTION_QUANTITIES = frozenset({"A", "I", "Imin", "Z", "J", "Zt"})
 BEAM_SUPPORTS = ("cantilever", "simply-supported", "fixed-fixed")
 BEAM_LOADS = ("end", "centre", "uniform")
 COLUMN_SUPPORTS = ("pinned-pinned", "fixed-free", "fixed-pinned", "fixed-fixed")
@@ -61,6 +62,71 @@ SHEAR_YIELD_RATIO = 1 / math.sqrt(3)
 
 
 @dataclass(frozen=True)
+class PartKind:
+    """What kind of part a function is: the questions the steps ask of a load case, not its name.
+
+    Attributes:
+        sized_by: what the free variable sets, in words: "section" (a cross-section shape of
+            the spec's [section]), "thickness" (a panel's or plate's), "wall" (a pressure
+            vessel's), "volume" (a spring's material volume).
+        in_compression: its strength and failure checks are on a compressive stress (columns,
+            plates); the others carry tension or bending, where a brittle class needs a
+            fracture constraint to be ranked.
+        bends: loaded in bending between supports (beam, panel): it takes a support and a load,
+            a natural frequency of a bending mode, and may be made a sandwich.
+        shape_capped: with the scale free, its section is held to the family's practical
+            bending shape-factor limits (Weaver & Ashby).
+        own_dimension: the one dimension the free variable is when no section shape is sized:
+            "t" (wall or plate thickness) or "V" (spring volume); None otherwise.
+        fixed_geometry: symbols of the fixed geometry the part's equations read beside its
+            own dimension (a vessel's radius r, a plate's width b).
+        shapes: the shapes, besides "generic", a part without a sized section takes.
+    """
+
+    sized_by: str
+    in_compression: bool = False
+    bends: bool = False
+    shape_capped: bool = False
+    own_dimension: str | None = None
+    fixed_geometry: tuple[str, ...] = ()
+    shapes: tuple[str, ...] = ()
+
+    @property
+    def takes_section(self) -> bool:
+        """Sized through a cross-section shape (tie, beam, column, shaft)."""
+        return self.sized_by == "section"
+
+    @property
+    def has_edges(self) -> bool:
+        """A panel or plate: the conditions along its edges are part of the spec."""
+        return self.sized_by == "thickness"
+
+    @property
+    def vessel(self) -> bool:
+        """A pressure vessel (cylinder, sphere): sized by its wall at a given radius."""
+        return self.sized_by == "wall"
+
+
+PART_KINDS: dict[str, PartKind] = {
+    "tie": PartKind("section"),
+    "beam": PartKind("section", bends=True, shape_capped=True),
+    "column": PartKind("section", in_compression=True, shape_capped=True),
+    "shaft": PartKind("section"),
+    "panel": PartKind("thickness", bends=True, shapes=("rectangle", "sandwich")),
+    "plate": PartKind("thickness", in_compression=True, own_dimension="t", fixed_geometry=("b",)),
+    "cylinder": PartKind("wall", own_dimension="t", fixed_geometry=("r",)),
+    "sphere": PartKind("wall", own_dimension="t", fixed_geometry=("r",)),
+    "spring": PartKind("volume", own_dimension="V"),
+}
+"""Every function's kind of part; ``LoadCase.kind`` and ``part_kind`` read it."""
+
+
+def part_kind(function: str) -> PartKind:
+    """The kind of part a function is (``function`` one of ``FUNCTIONS``)."""
+    return PART_KINDS[_check_choice(function, FUNCTIONS, "part.function")]
+
+
+@dataclass(frozen=True)
 class LoadCase:
     """One supported load case.
 
@@ -90,6 +156,17 @@ class LoadCase:
     def constraints(self) -> tuple[str, ...]:
         return tuple(self.utilisation)
 
+    @property
+    def kind(self) -> PartKind:
+        """What kind of part this case sizes."""
+        return PART_KINDS[self.function]
+
+    @property
+    def section_symbols(self) -> frozenset[str]:
+        """The section quantities (A, I, Imin, Z, J, Zt) its constraints read."""
+        used = frozenset().union(*(m.symbols for m in self.utilisation.values()))
+        return used & SECTION_QUANTITIES
+
 
 def _check_choice(value: str | None, choices: tuple[str, ...], where: str) -> str:
     if value not in choices:
@@ -108,7 +185,7 @@ def load_case(function: str, support: str | None = None, load: str | None = None
 
 def _base_case(function: str, support: str | None, load: str | None) -> LoadCase:
     _check_choice(function, FUNCTIONS, "part.function")
-    if function in ("beam", "panel"):
+    if PART_KINDS[function].bends:
         support = _check_choice(support or "simply-supported", BEAM_SUPPORTS, "part.support")
         default_load = "end" if support == "cantilever" else "centre"
         load = load or default_load
@@ -288,7 +365,7 @@ SHAFT_FATIGUE_RATIO = math.sqrt(3)
 def _frequency(case: LoadCase, support: str | None) -> tuple[M, str, str | None] | None:
     """(utilisation, equation, note) of the lowest natural frequency, or None."""
     fn = case.function
-    if fn in ("beam", "panel"):
+    if case.kind.bends:
         support = support or "simply-supported"
         lam = fm.BEAM_EIGENVALUES[support]
         note = (
@@ -340,7 +417,7 @@ def _with_failure_modes(case: LoadCase, support: str | None) -> LoadCase:
     if case.function == "shaft":
         equations["fracture"] += "; in torsion the largest principal stress equals τ"
         equations["fatigue"] += "; in torsion σ is the von Mises equivalent √3·τ"
-    if case.function in ("column", "plate"):
+    if case.kind.in_compression:
         for kind in ("fracture", "fatigue"):
             notes[kind] = (
                 f"{kind} is checked on the compressive stress (conservative: cracks close under compression)"
@@ -363,7 +440,7 @@ def with_requirement(case: LoadCase, criterion: str | None = None, load_ratio: f
     utilisation, equations = dict(case.utilisation), dict(case.equations)
     if criterion is not None:
         _check_choice(criterion, fm.CRITERIA, "constraint.criterion")
-        if case.function not in fm.VESSELS:
+        if not case.kind.vessel:
             raise InputError(
                 "constraint.criterion",
                 f"{criterion!r} applies to pressure vessels, not a {case.function}",

@@ -9,6 +9,7 @@ list the Selection carries; nothing else writes assumptions.
 from __future__ import annotations
 
 from selector.inputs.spec import Spec
+from selector.mechanics.loadcases import part_kind
 from selector.pipeline.derive import Derivation
 from selector.pipeline.sizing import THIN_WALL_RATIO, Design, build
 
@@ -61,10 +62,11 @@ FUNCTION_ASSUMPTIONS: dict[str, tuple[str, ...]] = {
 
 def _section_assumptions(spec: Spec, design: Design | None) -> list[str]:
     fn, shape = spec.part.function, spec.section.shape
-    if fn not in ("tie", "beam", "column", "shaft") or shape == "generic":
+    kind = part_kind(fn)
+    if not kind.takes_section or shape == "generic":
         return []
     out = []
-    if shape in THIN_WALLED and fn in ("beam", "column") and spec.section.free == "scale":
+    if shape in THIN_WALLED and kind.shape_capped and spec.section.free == "scale":
         out.append(
             "no local buckling of walls or flanges: the section is held within its family's "
             "practical shape-factor limits (Weaver & Ashby), not checked wall by wall"

@@ -20,11 +20,11 @@ from collections.abc import Callable, Mapping
 import pandas as pd
 
 from selector.errors import InputError
+from selector.mechanics.loadcases import part_kind
 from selector.pipeline.sizing import Design
 
 BOUND_FIELDS = ("max_depth", "max_width", "max_diameter")
 ROUND_SHAPES = ("round", "tube")
-SECTION_FUNCTIONS = ("tie", "beam", "column", "shaft")
 
 Reader = Callable[[Mapping[str, float]], float | None]
 """Reads the bounded dimension [m] from a part's dimensions (None: not in this part)."""
@@ -41,7 +41,8 @@ def _outer_diameter(radius: float) -> Reader:
 def _uses(fn: str, shape: str, radius: float = 0.0) -> dict[str, tuple[str, Reader]]:
     """Bound field → (what it reads, in words; how to read it) for this function and shape;
     ``radius`` r [m] of a cylinder or sphere."""
-    if fn in SECTION_FUNCTIONS:
+    kind = part_kind(fn)
+    if kind.takes_section:
         if shape in ROUND_SHAPES:
             d = ("the diameter d", _dimension("d"))
             return {"max_depth": d, "max_width": d, "max_diameter": d}
@@ -50,7 +51,7 @@ def _uses(fn: str, shape: str, radius: float = 0.0) -> dict[str, tuple[str, Read
         return {"max_depth": ("the thickness h", _dimension("h"))}
     if fn == "plate":
         return {"max_depth": ("the thickness t", _dimension("t"))}
-    if fn in ("cylinder", "sphere"):
+    if kind.vessel:
         return {"max_diameter": ("the outer diameter 2·r + t", _outer_diameter(radius))}
     return {}
 
@@ -64,7 +65,7 @@ def check_bounds(fn: str, shape: str, bounds: Mapping[str, float]) -> None:
     uses = _uses(fn, shape)
     for name in bounds:
         if name not in uses:
-            part = f"a {fn}" if fn not in SECTION_FUNCTIONS else f"a {fn} of {shape} section"
+            part = f"a {fn} of {shape} section" if part_kind(fn).takes_section else f"a {fn}"
             none = f"no size bound: {part} has no depth, width or diameter"
             expected = f"one of: {', '.join(uses)}" if uses else none
             raise InputError(f"section.{name}", f"{name} does not apply to {part}", expected)

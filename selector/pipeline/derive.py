@@ -48,6 +48,11 @@ SYMBOLS_LATEX = {
     "k_Z": "k_Z",
 }
 PROPERTY_SYMBOLS = frozenset(PROPERTIES) | frozenset(DERIVED_PROPERTIES)
+OWN_DIMENSION_TEXT = {
+    "V": "the volume V of spring material is free",
+    "t": "the wall or plate thickness t is free; the other dimensions are fixed",
+}
+"""How the derivation states the free variable of a part sized by its own dimension."""
 
 
 @dataclass(frozen=True)
@@ -83,12 +88,9 @@ def geometry(case: LoadCase, free: str) -> Geometry:
             f"{free!r} cannot be chosen for a {case.function}",
             f"one of: {', '.join(case.allowed_free)}",
         )
-    if case.function == "spring":
-        return Geometry(free, "V", {}, "the volume V of spring material is free")
-    if case.function in ("cylinder", "sphere", "plate"):
-        return Geometry(
-            free, "t", {}, "the wall or plate thickness t is free; the other dimensions are fixed"
-        )
+    own = case.kind.own_dimension
+    if own is not None:
+        return Geometry(free, own, {}, OWN_DIMENSION_TEXT[own])
     if free == "scale":
         return Geometry(
             free,

@@ -17,6 +17,7 @@ from selector.errors import InputError
 from selector.inputs.properties import DERIVED_PROPERTIES, PROPERTIES, property_of
 from selector.inputs.spec_keys import CONSTRAINT_KEYS
 from selector.mechanics import failure_modes as fm
+from selector.mechanics.loadcases import part_kind
 
 FIELDS_OF_TYPE: dict[str, tuple[str, ...]] = {t: CONSTRAINT_KEYS[t] for t in fm.FAILURE_CONSTRAINTS}
 """The fields each failure-mode constraint accepts (beside ``safety_factor``)."""
@@ -44,7 +45,7 @@ def failure_limits(constraint: Any, where: str, function: str) -> dict[str, floa
                 )
     out: dict[str, float] = {}
     if constraint.type == "fracture":
-        if constraint.criterion is not None and function not in fm.VESSELS:
+        if constraint.criterion is not None and not part_kind(function).vessel:
             raise InputError(
                 f"{where}.criterion",
                 f"{constraint.criterion!r} applies to pressure vessels, not a {function}",

@@ -20,6 +20,7 @@ from selector.inputs.limits import finite_float
 from selector.inputs.material_report import NUMBER
 from selector.inputs.properties import PROPERTIES, RATING_LEVELS, RATINGS
 from selector.inputs.units import format_number
+from selector.mechanics.loadcases import part_kind
 
 PASSES, PARTLY, REJECTED = "passes", "partly", "rejected"
 _LIMIT = re.compile(r"^\s*(>=|<=|>|<|≥|≤)\s*(.+?)\s*$")
@@ -214,8 +215,6 @@ def qualifying_ranges(screened: pd.DataFrame, screens: Screens) -> pd.DataFrame:
     return out
 
 
-TENSILE_FUNCTIONS = ("tie", "beam", "panel", "shaft", "cylinder", "sphere", "spring")
-"""Functions whose strength check is in tension or bending (columns and plates carry compression)."""
 STRENGTH_CHECKS = ("strength", "fatigue")
 
 
@@ -223,7 +222,7 @@ def brittle_rule_applies(function: str, constraint_types: tuple[str, ...], scree
     """True when brittle classes must leave the ranking: a tensile or bending strength check
     without a fracture constraint, and no ``allow_brittle``."""
     return (
-        function in TENSILE_FUNCTIONS
+        not part_kind(function).in_compression
         and any(t in STRENGTH_CHECKS for t in constraint_types)
         and "fracture" not in constraint_types
         and not screens.allow_brittle

@@ -14,7 +14,7 @@ from selector.inputs.expressions import Expression, parse
 from selector.inputs.limits import check_range, check_safety_factor
 from selector.inputs.properties import PROPERTIES
 from selector.inputs.spec import DIMENSION_FIELDS, QUANTITY_FIELDS, Spec
-from selector.mechanics.loadcases import with_requirement
+from selector.mechanics.loadcases import part_kind, with_requirement
 from selector.mechanics.objectives import OBJECTIVE_UNITS
 from selector.mechanics.stress_states import stress_state
 from selector.pipeline import failure_limits as fl
@@ -180,8 +180,6 @@ class Selection:
         return selection_chart(self, x, y, **options)
 
 
-SECTION_FUNCTIONS = ("tie", "beam", "column", "shaft")
-"""Functions sized through a cross-section shape; the others size a wall, a plate or a volume."""
 SIZABLE_SHAPES = ("generic", "rectangle", "round", "tube", "box", "i-section", "channel", "angle", "tee")
 
 
@@ -221,21 +219,17 @@ def _limits(spec: Spec) -> dict[str, dict[str, float]]:
     return limits
 
 
-SHAPES_OF_FUNCTION = {"panel": ("rectangle", "sandwich")}
-"""Shapes a function without a sized cross-section takes (plates, vessels and springs take none)."""
-SIZED_BY = {"plate": "thickness", "cylinder": "wall", "sphere": "wall", "spring": "volume"}
-
-
 def _check_section(fn: str, shape: str, free: str) -> None:
     """Refuse shape and free-variable pairs the sizing cannot honour."""
-    if fn not in SECTION_FUNCTIONS and shape not in ("generic", *SHAPES_OF_FUNCTION.get(fn, ())):
-        uses = SHAPES_OF_FUNCTION.get(fn)
+    kind = part_kind(fn)
+    if not kind.takes_section and shape not in ("generic", *kind.shapes):
+        uses = kind.shapes
         raise InputError(
             "section.shape",
             f"a {fn} does not use shape = {shape!r}",
-            f"one of: {', '.join(uses)}" if uses else f"no shape: a {fn} is sized by its {SIZED_BY[fn]}",
+            f"one of: {', '.join(uses)}" if uses else f"no shape: a {fn} is sized by its {kind.sized_by}",
         )
-    if fn not in SECTION_FUNCTIONS or (free == "none" and shape == "generic"):
+    if not kind.takes_section or (free == "none" and shape == "generic"):
         return
     if shape not in SIZABLE_SHAPES:
         raise InputError(
@@ -292,6 +286,7 @@ def design_of(spec: Spec, shape: str) -> Design:
         implicit, sf_from = IMPLICIT_CONSTRAINTS[spec.part.function]
         limits[implicit] = {"SF": limits.get(sf_from, {}).get("SF", 1.0)}
     fn, free = spec.part.function, spec.section.free
+    kind = part_kind(fn)
     values |= fl.derived_geometry(fn, values)
     _check_section(fn, shape, free)
     if fn == "panel":
@@ -300,7 +295,7 @@ def design_of(spec: Spec, shape: str) -> Design:
         dims = {"b": width} if width else {}
         if spec.section.t is not None:
             dims["h"] = magnitude_in(spec.section.t, "m", "section.t")
-    elif fn in ("cylinder", "sphere", "plate", "spring"):
+    elif kind.own_dimension is not None:
         if free == "none" and fn == "spring":
             raise InputError(
                 "section.free",
@@ -310,13 +305,15 @@ def design_of(spec: Spec, shape: str) -> Design:
         dims = {"t": dims["t"]} if "t" in dims else {}
     elif shape == "generic" and free in ("depth", "width"):
         shape = "rectangle"
-    if fn in SECTION_FUNCTIONS:
+    if kind.takes_section:
         if free == "scale" and not dims:
             dims = dict(DEFAULT_DIMS.get(shape, {}))
         if free == "depth" and "b" not in dims and "b" in values:
             dims["b"] = values["b"]
     if free == "none":
-        needed = {"panel": ("b", "h"), "cylinder": ("t",), "sphere": ("t",), "plate": ("t",)}.get(fn)
+        # a section shape checks its own dimensions; a panel is a rectangle of width b, thickness h
+        own = (kind.own_dimension,) if kind.own_dimension else ("b", "h")
+        needed = None if kind.takes_section else own
         given = set(dims)
         if needed is None:
             from selector.pipeline.sizing import build
@@ -548,7 +545,7 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
             f"free = none: every part is checked as given; the index shown is for free = {derive_free}"
         )
     shape = spec.section.shape
-    if shape == "generic" and spec.section.free == "scale" and spec.part.function in SECTION_FUNCTIONS:
+    if shape == "generic" and spec.section.free == "scale" and case.kind.takes_section:
         notes.append(
             "section: a generic solid square at fixed proportions (set [section] shape to size a real one)"
         )
@@ -629,7 +626,7 @@ def _select_sandwich(spec: Spec, materials: pd.DataFrame, conservative: bool, in
     from selector.inputs.spec import SectionSpec
 
     fn, section = spec.part.function, spec.section
-    if fn not in ("beam", "panel"):
+    if not part_kind(fn).bends:
         raise InputError("section.shape", f"a {fn} is not sized as a sandwich", "function = beam or panel")
     if section.shape != "sandwich":
         raise InputError(

@@ -24,6 +24,7 @@ import pandas as pd
 from selector.errors import InputError
 from selector.inputs.properties import DERIVED_PROPERTIES, HIGH_IS_UNFAVOURABLE, PROPERTIES, property_of
 from selector.mechanics import sections as sec
+from selector.mechanics.loadcases import LoadCase
 from selector.mechanics.objectives import OBJECTIVE_FACTORS
 from selector.mechanics.product_forms import minimum_walls
 from selector.pipeline import columns
@@ -166,8 +167,6 @@ def _inputs(
 
 WALL_DIMENSIONS = ("t", "tf", "tw")
 """Dimensions thickened when a section is more efficient than its family can be made."""
-CAPPED_FUNCTIONS = ("beam", "column")
-"""Functions whose sections are held to the bending shape-factor limits of Weaver & Ashby."""
 
 
 def size_parts(table: pd.DataFrame, derivations: list[Derivation], design: Design) -> pd.DataFrame:
@@ -179,7 +178,7 @@ def size_parts(table: pd.DataFrame, derivations: list[Derivation], design: Desig
     ``objective_low`` / ``objective_high`` bound the objective with every property at
     its favourable / unfavourable end of the class range.
     """
-    if design.free != "scale" or derivations[0].case.function not in CAPPED_FUNCTIONS or table.empty:
+    if design.free != "scale" or not derivations[0].case.kind.shape_capped or table.empty:
         return _size_group(table, derivations, design)
     parts = []
     for family, rows in table.groupby("family", sort=False):
@@ -263,7 +262,7 @@ def _size_group(table: pd.DataFrame, derivations: list[Derivation], design: Desi
     ]
     frame = pd.DataFrame(rows, index=table.index).reindex(columns=SIZED_COLUMNS)
     objective = derivations[0].objective
-    fn = derivations[0].case.function
+    case = derivations[0].case
     for column, worst in (("objective_low", False), ("objective_high", True)):
         if design.free == "none":
             # The part is given: only the material factor (ρ, C_m·ρ, CO2·ρ) moves the objective.
@@ -272,7 +271,7 @@ def _size_group(table: pd.DataFrame, derivations: list[Derivation], design: Desi
             frame[column] = frame["volume"].to_numpy(dtype=float) * factor.evaluate(props)
             continue
         ends = _governing([_objective_at_end(table, d, design, constants, worst) for d in derivations])
-        if _approximate(design, fn):
+        if _approximate(design, case):
             # Scale the closed-form ends by how far the exact part differs from the closed form.
             closed = _governing(
                 [_objective_at_mid(d, design, constants, mid, len(table)) for d in derivations]
@@ -309,14 +308,13 @@ def _objective_at_end(
     return np.broadcast_to(d.objective_value.evaluate(_inputs(props, d, design, constants)), len(table))
 
 
-def _dims_for(design: Design, x: float, fn: str) -> dict[str, float]:
+def _dims_for(design: Design, x: float, case: LoadCase) -> dict[str, float]:
     ref = dict(design.dims)
     if design.free == "none":
         return ref
-    if fn in ("cylinder", "sphere", "plate"):
-        return {"t": x}
-    if fn == "spring":
-        return {"V": x}
+    own = case.kind.own_dimension
+    if own is not None:
+        return {own: x}
     if design.free == "scale":
         area = build(design.shape, ref).A
         factor = math.sqrt(x / area)
@@ -325,11 +323,11 @@ def _dims_for(design: Design, x: float, fn: str) -> dict[str, float]:
     return ref
 
 
-def _wall_key(design: Design, fn: str) -> str | None:
+def _wall_key(design: Design, case: LoadCase) -> str | None:
     """The dimension held to the product form's minimum wall, when it is the free one."""
     if design.free == "none":
         return None
-    if fn in ("cylinder", "sphere", "plate"):
+    if case.kind.own_dimension == "t":
         return "t"
     return {"thickness": "h", "wall": "t"}.get(design.free)
 
@@ -344,31 +342,30 @@ def _one_part(
     constants: Mapping[str, float],
     floor: float = 0.0,
 ) -> dict[str, object]:
-    fn = derivations[0].case.function
     case = derivations[0].case
     props = {k: v[i] for k, v in mid.items()}
     warnings: list[str] = []
     if design.free != "none" and (not np.isfinite(x) or x <= 0):
         return {"feasible": False, "size_warnings": ["cannot be sized (missing property data)"]}
-    dims = _dims_for(design, float(x), fn)
-    geometry = _geometry_values(design, dims, fn)
+    dims = _dims_for(design, float(x), case)
+    geometry = _geometry_values(design, dims, case)
     if geometry is None:
         return {"feasible": False, "size_warnings": ["no valid section of this shape meets the constraints"]}
-    if design.free != "none" and _approximate(design, fn):
-        dims, geometry = _refine(design, dims, derivations, props, fn)
+    if design.free != "none" and _approximate(design, case):
+        dims, geometry = _refine(design, dims, derivations, props)
         if geometry is None:
             return {
                 "feasible": False,
                 "size_warnings": ["no valid section of this shape meets the constraints"],
             }
-    key = _wall_key(design, fn)
+    key = _wall_key(design, case)
     if key is not None and dims.get(key, math.inf) < floor:
         warnings.append(
             f"sized at the {floor * 1e3:.3g} mm minimum wall of its product form "
             f"(needs {dims[key] * 1e3:.2g} mm): over-designed"
         )
         dims = dict(dims) | {key: floor}
-        geometry = _geometry_values(design, dims, fn)
+        geometry = _geometry_values(design, dims, case)
         if geometry is None:
             return {
                 "feasible": False,
@@ -398,7 +395,7 @@ def _one_part(
     responses = {
         name: float(m.evaluate(values)) for name, m in case.responses.items() if m.symbols <= set(values)
     }
-    warnings += _shape_warnings(design, dims, fn, str(row["family"]))
+    warnings += _shape_warnings(design, dims, case, str(row["family"]))
     wall = dims.get("t") or dims.get("tw")
     if wall is not None and wall < MIN_PRACTICAL_WALL:
         warnings.append(f"wall {wall * 1e3:.2g} mm is thinner than a practical minimum of 0.5 mm")
@@ -422,9 +419,9 @@ def _one_part(
     }
 
 
-def _shape_warnings(design: Design, dims: dict[str, float], fn: str, family: str) -> list[str]:
+def _shape_warnings(design: Design, dims: dict[str, float], case: LoadCase, family: str) -> list[str]:
     """Warn where the section is more efficient than the family can practically be made."""
-    if fn in ("cylinder", "sphere", "plate", "spring", "tie", "shaft") or design.shape in (
+    if not case.kind.shape_capped or design.shape in (
         "generic",
         "rectangle",
         "round",
@@ -441,22 +438,20 @@ def _shape_warnings(design: Design, dims: dict[str, float], fn: str, family: str
     return []
 
 
-def _approximate(design: Design, fn: str) -> bool:
+def _approximate(design: Design, case: LoadCase) -> bool:
     """True where the closed-form size came from an approximate section model."""
-    exact = fn in ("cylinder", "sphere", "plate", "spring", "tie") or design.free == "scale"
+    # no section shape, or one read through its area alone (a tie), is sized exactly
+    exact = case.section_symbols <= {"A"} or design.free == "scale"
     return not (
         exact or (design.free in ("depth", "width", "thickness") and design.shape in ("rectangle", "generic"))
     )
 
 
-def _geometry_values(design: Design, dims: dict[str, float], fn: str) -> dict[str, float] | None:
+def _geometry_values(design: Design, dims: dict[str, float], case: LoadCase) -> dict[str, float] | None:
     """Section quantities and fixed geometry for evaluating the load case exactly."""
-    if fn in ("cylinder", "sphere"):
-        return {"t": dims["t"], "r": design.values["r"]}
-    if fn == "plate":
-        return {"t": dims["t"], "b": design.values["b"]}
-    if fn == "spring":
-        return {"V": dims["V"]}
+    own = case.kind.own_dimension
+    if own is not None:
+        return {own: dims[own]} | {s: design.values[s] for s in case.kind.fixed_geometry}
     try:
         if design.free == "scale" and design.dims:
             # Geometrically similar to the reference section: each quantity scales with a power of size.
@@ -476,7 +471,6 @@ def _refine(
     dims: dict[str, float],
     derivations: list[Derivation],
     props: Mapping[str, float],
-    fn: str,
 ) -> tuple[dict[str, float], dict[str, float] | None]:
     """Bisection (in log space) on the free dimension so the largest utilisation is 1."""
     name = FREE_DIMENSION[design.free]
@@ -485,7 +479,7 @@ def _refine(
     def worst(value: float) -> float:
         trial = dict(dims)
         trial[name] = value
-        geo = _geometry_values(design, trial, fn)
+        geo = _geometry_values(design, trial, case)
         if geo is None:
             return math.inf
         vals = dict(design.values) | geo | dict(props)
@@ -506,12 +500,12 @@ def _refine(
         lo, hi = (m, hi) if worst(m) > 1 else (lo, m)
     out = dict(dims)
     out[name] = hi
-    return out, _geometry_values(design, out, fn)
+    return out, _geometry_values(design, out, case)
 
 
 def design_constants(derivations: list[Derivation], design: Design) -> dict[str, float]:
     """Shape constants k_I, k_Z, k_J, k_Zt when the scale is free (none otherwise), as in ``size_parts``."""
-    uses_section = derivations[0].case.function not in ("spring", "cylinder", "sphere", "plate")
+    uses_section = derivations[0].case.kind.own_dimension is None
     if uses_section and SHAPE_CONSTANTS & set().union(*(d.solution.symbols for d in derivations)):
         return shape_constants(design.shape, dict(design.dims))
     return {}
@@ -541,7 +535,7 @@ def objective_samples(
     if design.free == "none":
         # A given part: its volume is fixed and only the material factor moves the objective.
         case = derivations[0].case
-        geometry = _geometry_values(design, dict(design.dims), case.function) or {}
+        geometry = _geometry_values(design, dict(design.dims), case) or {}
         volume = float(case.volume.evaluate(dict(design.values) | geometry))
         return np.asarray(volume * OBJECTIVE_FACTORS[derivations[0].objective].evaluate(dict(properties)))
     constants = design_constants(derivations, design)

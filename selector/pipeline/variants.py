@@ -8,7 +8,7 @@ from __future__ import annotations
 
 from selector.errors import InputError
 from selector.inputs.spec import Spec
-from selector.mechanics.loadcases import LoadCase, load_case
+from selector.mechanics.loadcases import LoadCase, load_case, part_kind
 from selector.mechanics.plates import PLATE_EDGES, plate_case
 from selector.mechanics.springs import SPRING_FORMS, spring_case
 from selector.suggest import did_you_mean
@@ -32,7 +32,7 @@ def case_for(spec: Spec) -> LoadCase:
     case = load_case(fn, part.support, part.load)
     if part.form is not None and fn != "spring":
         raise InputError("part.form", f"form applies to a spring, not a {fn}", "remove form")
-    if part.edges is not None and fn not in ("plate", "panel"):
+    if part.edges is not None and not part_kind(fn).has_edges:
         raise InputError("part.edges", f"edges apply to a plate or panel, not a {fn}", "remove edges")
     if fn == "spring":
         return spring_case(case, _choice(part.form or "uniform", SPRING_FORMS, "part.form"))
