@@ -48,6 +48,6 @@ def test_a_tie_reads_its_area_alone():
 
 
 def test_an_unknown_function_is_refused_with_a_suggestion():
-    with pytest.raises(InputError, match="part.function") as err:
+    with pytest.raises(InputError, match=r"part\.function") as err:
         part_kind("bean")
     assert "beam" in str(err.value)
