@@ -54,6 +54,7 @@ def sized_values(objective: str) -> tuple[str, ...]:
     energy when it is the objective."""
     return (*SIZED_VALUES, ENERGY) if objective == ENERGY else SIZED_VALUES
 
+
 _CONSTRAINT_INDEX = "index_"
 
 
