@@ -16,11 +16,9 @@ import pytest
 from click.testing import CliRunner
 
 from selector.errors import ExpressionError, InputError, OutputError
-from selector.inputs.properties import FAMILIES
 from selector.inputs.spec import spec_from_dict
 from selector.outputs.charts import (
     FAMILY_COLOURS,
-    OKABE_ITO,
     REJECTED_GREY,
     axis_spec,
     chart_for_selection,
@@ -208,22 +206,49 @@ def test_classes_without_data_are_left_out_and_named():
 # ----------------------------------------------------------------------------- colours
 
 
-def test_okabe_ito_colours_in_family_order():
-    # Okabe & Ito (2008) "Color Universal Design"; hex values as tabulated by Wong,
-    # Nature Methods 8, 441 (2011), from memory.
-    assert OKABE_ITO == (
-        "#E69F00",
-        "#56B4E9",
-        "#009E73",
-        "#F0E442",
-        "#0072B2",
-        "#D55E00",
-        "#CC79A7",
-        "#000000",
+# The Okabe–Ito palette (Okabe & Ito 2008, "Color Universal Design"; hex values as tabulated
+# by Wong, Nature Methods 8, 441 (2011), from memory), assigned to the families in the
+# project's order (CONVENTIONS: metal, polymer, composite, ceramic, glass, foam, natural,
+# elastomer, mineral); the ninth family reuses the first colour with its own marker.
+PUBLISHED_COLOURS = {
+    "metal": "#E69F00",  # orange
+    "polymer": "#56B4E9",  # sky blue
+    "composite": "#009E73",  # bluish green
+    "ceramic": "#F0E442",  # yellow
+    "glass": "#0072B2",  # blue
+    "foam": "#D55E00",  # vermillion
+    "natural": "#CC79A7",  # reddish purple
+    "elastomer": "#000000",  # black
+    "mineral": "#E69F00",
+}
+
+
+def test_each_family_is_drawn_in_its_okabe_ito_colour():
+    one_per_family = make_table(
+        [
+            {
+                "id": f"c{i}",
+                "name": f"Class {i}",
+                "family": family,
+                "E": (1 + i, 2 + i),
+                "rho": (100 * (i + 1),) * 2,
+            }
+            for i, family in enumerate(PUBLISHED_COLOURS)
+        ]
     )
-    assert [FAMILY_COLOURS[f] for f in FAMILIES[:8]] == list(OKABE_ITO)
-    assert REJECTED_GREY == "#999999"
-    assert REJECTED_GREY not in FAMILY_COLOURS.values()
+    fig = property_chart(one_per_family, "rho", "E")
+    drawn = {}
+    for trace in role(fig, "markers"):
+        colours = set(trace.marker.color) if not isinstance(trace.marker.color, str) else {trace.marker.color}
+        assert len(colours) == 1
+        drawn[trace.meta["family"]] = (colours.pop(), trace.marker.symbol)
+    assert {f: colour for f, (colour, _) in drawn.items()} == PUBLISHED_COLOURS
+    assert drawn["mineral"][1] != drawn["metal"][1]  # same colour, told apart by the marker
+    for trace in role(fig, "boxes"):
+        hex_colour = PUBLISHED_COLOURS[trace.meta["family"]]
+        r, g, b = (int(hex_colour[i : i + 2], 16) for i in (1, 3, 5))
+        assert trace.fillcolor.startswith(f"rgba({r}, {g}, {b}")
+    assert REJECTED_GREY not in set(PUBLISHED_COLOURS.values())
 
 
 def test_markers_coloured_by_family_and_rejected_in_grey():
