@@ -13,7 +13,7 @@ import pytest
 from anastruct import SystemElements
 
 from selector.inputs.spec import spec_from_dict
-from selector.mechanics.loadcases import BEAM_CONSTANTS, EULER_N2, load_case
+from selector.mechanics.loadcases import BEAM_CONSTANTS, load_case
 from selector.pipeline.selection import select
 
 from ..conftest import make_table
@@ -92,8 +92,17 @@ def test_peak_moment_matches_fe(support, load):
         ("fixed-fixed", 0.5),
     ],
 )
-def test_euler_constants_match_effective_length_factors(support, k):
-    assert EULER_N2[support] == pytest.approx(1 / k**2, rel=2e-3)
+def test_the_column_case_buckles_at_the_euler_load_of_its_effective_length(support, k):
+    # F_cr = π²·E·I_min/(K·L)² for the end conditions' effective-length factor K (Timoshenko & Gere,
+    # as above): the built load case gives that buckling load, and its buckling utilisation is 1
+    # at F = F_cr/SF.
+    case = load_case("column", support)
+    euler = math.pi**2 * E * I_SECOND / (k * L) ** 2
+    values = {"E": E, "Imin": I_SECOND, "L": L}
+    assert case.responses["buckling_load"].evaluate(values) == pytest.approx(euler, rel=2e-3)
+    sf = 2.0
+    at_limit = case.utilisation["buckling"].evaluate(values | {"F": euler / sf, "SF": sf})
+    assert at_limit == pytest.approx(1.0, rel=2e-3)
 
 
 def test_a_sized_cantilever_deflects_by_its_limit_in_fe():
