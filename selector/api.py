@@ -82,8 +82,11 @@ def report_from_spec(
     units: str | None = None,
     robust_draws: int | None = None,
     seed: int | None = None,
+    static: bool = False,
 ) -> Path:
-    """Run a spec file and write its report to ``output`` (checked before any work is done)."""
+    """Run a spec file and write its report to ``output`` (checked before any work is done).
+
+    ``static`` draws the charts as SVG images instead of interactive ones."""
     from selector.outputs.files import ensure_folder
     from selector.outputs.report import DEFAULT_REPORT_DRAWS, check_report_path, write_report
     from selector.pipeline.selection import report_studies
@@ -98,4 +101,4 @@ def report_from_spec(
     selection = report_studies(selection, draws, seed)
     protect += list(selection.spec.materials.files)
     text = Path(spec_path).read_text(encoding="utf-8")
-    return write_report(selection, target, text, Path(spec_path).name, units, protect)
+    return write_report(selection, target, text, Path(spec_path).name, units, protect, static)

@@ -434,6 +434,12 @@ def chart(
     show_default=True,
     help="The report file (.html).",
 )
+@click.option(
+    "--static-charts",
+    "static",
+    is_flag=True,
+    help="Draw the charts as SVG images, without plotly.js (a smaller file for print and archive).",
+)
 def report(
     spec: str,
     files: tuple[str, ...],
@@ -442,11 +448,12 @@ def report(
     draws: int,
     seed: int | None,
     output: str,
+    static: bool,
 ) -> None:
     """Write a self-contained HTML design report for a SPEC file (opens offline, prints cleanly)."""
     from selector.api import report_from_spec
 
-    path = report_from_spec(spec, output, files, no_builtin, units, draws, seed)
+    path = report_from_spec(spec, output, files, no_builtin, units, draws, seed, static)
     click.echo(f"wrote {path}", err=True)
 
 

@@ -26,6 +26,8 @@ DEFAULT_REPORT_DRAWS = 2000
 REPORT_EXTENSIONS = (".html", ".htm")
 PRICE_FALLBACK = "indicative 2025 USD bands"
 CHART_HEIGHT = 640
+STATIC_CHART_WIDTH = 1000
+"""Width [px] of a chart drawn as an image (the report's text column is about this wide)."""
 ROBUST_ROWS = 15
 """Rows of the robustness table (the most likely best first)."""
 
@@ -390,6 +392,34 @@ def _chart_html(fig: Any, div_id: str) -> Any:
     )
 
 
+def _chart_image(fig: Any, div_id: str) -> Any:
+    """A figure as an SVG image in an <img> (no script runs in it); a note dict passes through."""
+    import base64
+
+    from markupsafe import Markup
+
+    from selector.outputs.charts.writing import figure_image
+
+    if fig is None or isinstance(fig, dict):
+        return fig
+    svg = figure_image(fig, "svg", STATIC_CHART_WIDTH, CHART_HEIGHT, 1.0, "report charts")
+    title = fig.layout.title.text or "chart"
+    data = base64.b64encode(svg).decode("ascii")
+    return Markup('<img id="{}" class="chart-image" alt="{}" src="data:image/svg+xml;base64,{}">').format(
+        div_id, title, data
+    )
+
+
+def _embed_charts(figures: dict[str, Any], static: bool) -> dict[str, Any]:
+    """Each figure as interactive plotly markup, or as an SVG image with every image from one browser."""
+    if not static:
+        return {name: _chart_html(fig, f"chart-{name}") for name, fig in figures.items()}
+    from selector.outputs.charts.writing import image_session
+
+    with image_session("report charts"):
+        return {name: _chart_image(fig, f"chart-{name}") for name, fig in figures.items()}
+
+
 def _failure_mode_limits(c: Any) -> list[str]:
     """What a fracture, fatigue or frequency constraint states, as the spec wrote it."""
     from selector.mechanics.failure_modes import DEFAULT_GEOMETRY_FACTOR, FULLY_REVERSED
@@ -455,8 +485,12 @@ def report_context(
     spec_name: str | None = None,
     units: str | None = None,
     generated: _dt.date | None = None,
+    static: bool = False,
 ) -> dict[str, Any]:
-    """Everything the template shows, as plain values (strings, lists, figures)."""
+    """Everything the template shows, as plain values (strings, lists, figures).
+
+    With ``static`` the charts are SVG images (rendered in one Chromium session).
+    """
     from selector import __version__
 
     units = units or selection.spec.units
@@ -468,15 +502,13 @@ def report_context(
     header, rows = shortlist_rows(selection, units)
     size_warnings = sorted({w for r in rows for w in r.get("warnings", [])})
     trade = _tradeoff_view(selection)
-    charts = {
-        "property": _chart_html(_property_chart(selection, units), "chart-property"),
-        "tradeoff": _chart_html(trade.get("chart"), "chart-tradeoff"),
-    }
+    figures = {"property": _property_chart(selection, units), "tradeoff": trade.get("chart")}
     from selector.outputs.report_sandwich import sandwich_view
 
     sandwich = sandwich_view(selection, units)
     if sandwich is not None:
-        charts["sandwich"] = _chart_html(sandwich.pop("figure"), "chart-sandwich")
+        figures["sandwich"] = sandwich.pop("figure")
+    charts = _embed_charts(figures, static)
     return {
         "title": selection.spec.title,
         "notes": selection.spec.notes,
@@ -498,6 +530,7 @@ def report_context(
         "rows": rows,
         "size_warnings": size_warnings,
         "charts": charts,
+        "static_charts": static,
         "tradeoff": trade,
         "robust": _robust_view(selection),
         "sandwich": sandwich,
@@ -532,8 +565,9 @@ def build_report(
     spec_name: str | None = None,
     units: str | None = None,
     generated: _dt.date | None = None,
+    static: bool = False,
 ) -> str:
-    """The report as one HTML document (plotly.js inlined once).
+    """The report as one HTML document (plotly.js inlined once, or SVG charts with ``static``).
 
     Args:
         selection: the result of ``select``; its robustness and trade-off studies are shown
@@ -542,11 +576,13 @@ def build_report(
         spec_name: the spec's file name, shown above its text.
         units: "si" or "us" for the tables (the spec's units by default).
         generated: the date printed on the report (today by default).
+        static: draw the charts as SVG images and leave plotly.js out (a far smaller file,
+            for printing and archiving; needs Chromium, like any image).
     """
-    context = report_context(selection, spec_text, spec_name, units, generated)
+    context = report_context(selection, spec_text, spec_name, units, generated, static)
     from markupsafe import Markup
 
-    context["plotly_js"] = Markup(_plotly_js())
+    context["plotly_js"] = Markup("" if static else _plotly_js())
     return _environment().get_template("report.html.j2").render(**context)
 
 
@@ -569,14 +605,17 @@ def write_report(
     spec_name: str | None = None,
     units: str | None = None,
     protect: Sequence[str | Path] = (),
+    static: bool = False,
 ) -> Path:
-    """Build the report and write it atomically; refuses to write over any path in ``protect``."""
+    """Build the report and write it atomically; refuses to write over any path in ``protect``.
+
+    ``static`` draws the charts as SVG images (see ``build_report``)."""
     from selector.outputs.files import check_output, ensure_folder, write_text_atomic
 
     check_output(path, protect)
     target = check_report_path(path)
     ensure_folder(target)
-    write_text_atomic(target, build_report(selection, spec_text, spec_name, units))
+    write_text_atomic(target, build_report(selection, spec_text, spec_name, units, static=static))
     return target
 
 

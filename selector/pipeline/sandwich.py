@@ -122,6 +122,8 @@ PAIR_COLUMNS = (
     "core",
     "face_name",
     "core_name",
+    "face_short",
+    "core_short",
     "face_family",
     "core_family",
     "feasible",
@@ -378,6 +380,17 @@ def size_pairs(
     return SandwichResult(pairs, excluded, loads, OBJECTIVE_UNITS[loads.objective], assumptions)
 
 
+def _short_names(rows: pd.DataFrame) -> np.ndarray:
+    """Each class's short name (its name where the table has none)."""
+    names = rows["name"].to_numpy(dtype=object)
+    if "short_name" not in rows:
+        return names
+    short = rows["short_name"].to_numpy(dtype=object)
+    return np.array(
+        [s if isinstance(s, str) and s else n for s, n in zip(short, names, strict=True)], dtype=object
+    )
+
+
 def _pair_frame(
     face_rows: pd.DataFrame,
     core_rows: pd.DataFrame,
@@ -419,6 +432,8 @@ def _pair_frame(
             "core": core_rows["id"].to_numpy()[ci],
             "face_name": face_rows["name"].to_numpy()[fi],
             "core_name": core_rows["name"].to_numpy()[ci],
+            "face_short": _short_names(face_rows)[fi],
+            "core_short": _short_names(core_rows)[ci],
             "face_family": face_rows["family"].to_numpy()[fi],
             "core_family": core_rows["family"].to_numpy()[ci],
             "feasible": feasible,
@@ -538,14 +553,14 @@ PAIRS_SIZED_FOR = (
 def pair_candidates(result: SandwichResult) -> pd.DataFrame:
     """The feasible pairs as candidates of a trade-off, best first.
 
-    Columns: ``id`` (face+core), ``name`` ("face on core"), ``family`` (the face's),
+    Columns: ``id`` (face+core), ``name`` ("face on core", short names), ``family`` (the face's),
     ``rank``, mass, cost, co2, volume, ``t_face`` and ``t_core`` [m].
     """
     pairs = result.feasible
     return pd.DataFrame(
         {
             "id": pairs["face"] + "+" + pairs["core"],
-            "name": pairs["face_name"] + " on " + pairs["core_name"],
+            "name": pairs["face_short"] + " on " + pairs["core_short"],
             "family": pairs["face_family"],
             "rank": pairs["rank"].astype(int),
             **{k: pairs[k] for k in ("mass", "cost", "co2", "volume", "t_face", "t_core")},
