@@ -34,6 +34,7 @@ def pairs_frame(selection: Any, units: str = "si", top: int | None = None) -> pd
             f"mass [{mu}]": pairs["mass"] * mf,
             "cost [USD]": pairs["cost"],
             f"co2 [{mu} CO2e]": pairs["co2"] * mf,
+            "energy [MJ]": pairs["energy"],
             f"deflection_bending [{lu}]": pairs["deflection_bending"] * lf,
             f"deflection_shear [{lu}]": pairs["deflection_shear"] * lf,
             "utilisation": pairs["utilisation"],
@@ -78,6 +79,7 @@ def _json(selection: Any, units: str, top: int | None) -> str:
                 "mass": {"value": _json_value(r[f"mass [{mu}]"]), "unit": mu},
                 "cost": {"value": _json_value(r["cost [USD]"]), "unit": "USD"},
                 "co2": {"value": _json_value(r[f"co2 [{mu} CO2e]"]), "unit": f"{mu} CO2e"},
+                "energy": {"value": _json_value(r["energy [MJ]"]), "unit": "MJ"},
                 "deflection": {
                     "bending": {"value": _json_value(r[f"deflection_bending [{lu}]"]), "unit": lu},
                     "shear": {"value": _json_value(r[f"deflection_shear [{lu}]"]), "unit": lu},

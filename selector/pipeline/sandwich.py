@@ -24,6 +24,7 @@ from selector.inputs.properties import FAMILIES, PROPERTIES
 from selector.inputs.spec import Spec
 from selector.mechanics import sandwich as sw
 from selector.mechanics.objectives import OBJECTIVE_FACTORS, OBJECTIVE_UNITS
+from selector.mechanics.product_forms import CLASS_MIN_WALL
 from selector.suggest import did_you_mean
 
 DEFAULT_FACE_FAMILIES = ("metal", "composite")
@@ -38,6 +39,8 @@ MIN_FACE: dict[str, float] = {
     "natural": 1.0e-3,
 }
 MIN_FACE_OTHER = 1.0e-3
+NOT_SHEET = frozenset({"spring-steel-wire"})
+"""Classes made only as round wire: no face is cut from them (common practice, no source)."""
 MIN_CORE = 5e-3
 """Thinnest core [m] commonly made and bonded (sheet foam, honeycomb, end-grain balsa).
 
@@ -133,6 +136,7 @@ PAIR_COLUMNS = (
     "mass",
     "cost",
     "co2",
+    "energy",
     "volume",
     "objective",
     "deflection",
@@ -332,10 +336,14 @@ def size_pairs(
     core_rows = _members(alive, cores_chosen, DEFAULT_CORE_FAMILIES, "sandwich.cores").reset_index(drop=True)
     fp = face_properties(face_rows, loads.objective, conservative)
     cp = core_properties(core_rows, loads.objective, conservative)
-    face_ok, core_ok = _usable(fp), _usable(cp)
+    sheet = ~face_rows["id"].isin(NOT_SHEET).to_numpy()
+    face_ok, core_ok = _usable(fp) & sheet, _usable(cp)
     excluded = pd.concat(
         [
-            _excluded_rows(face_rows, face_ok, "face", "missing stiffness, strength or cost data"),
+            _excluded_rows(face_rows, sheet, "face", "made as round wire, not as sheet for a face"),
+            _excluded_rows(
+                face_rows, _usable(fp) | ~sheet, "face", "missing stiffness, strength or cost data"
+            ),
             _excluded_rows(
                 core_rows,
                 core_ok,
@@ -357,11 +365,10 @@ def size_pairs(
     )
     pf = {k: v[fi] for k, v in fp.items()}
     pc = {k: v[ci] for k, v in cp.items()}
-    face_min = (
-        np.full(len(fi), loads.min_face)
-        if loads.min_face is not None
-        else face_rows["family"].map(lambda fam: MIN_FACE.get(fam, MIN_FACE_OTHER)).to_numpy(dtype=float)[fi]
-    )
+    by_family = face_rows["family"].map(lambda fam: MIN_FACE.get(fam, MIN_FACE_OTHER)).to_numpy(dtype=float)
+    # a cast face is no thinner than its casting can be made (product_forms), whatever the spec says
+    by_class = face_rows["id"].map(CLASS_MIN_WALL).fillna(0.0).to_numpy(dtype=float)
+    face_min = np.maximum(by_family if loads.min_face is None else loads.min_face, by_class)[fi]
     core_min = np.full(len(fi), loads.min_core if loads.min_core is not None else MIN_CORE)
     case = loads.case
     t_f, t_c = optimise_pairs(
@@ -413,13 +420,13 @@ def _pair_frame(
     mass = face_volume * pf["rho"] + core_volume * pc["rho"]
 
     heavy = _ends(loads.conservative)[1]
-    cost, co2 = (
+    cost, co2, energy = (
         area
         * (
             2 * t_f * _objective_per_volume(face_rows, kind, heavy)[fi]
             + t_c * _objective_per_volume(core_rows, kind, heavy)[ci]
         )
-        for kind in ("cost", "co2")
+        for kind in ("cost", "co2", "energy")
     )
     objective = area * (2 * pf["q"] * t_f + pc["q"] * t_c)
     feasible = np.isfinite(t_f) & np.isfinite(t_c)
@@ -443,6 +450,7 @@ def _pair_frame(
             "mass": mass,
             "cost": cost,
             "co2": co2,
+            "energy": energy,
             "volume": face_volume + core_volume,
             "objective": np.where(feasible, objective, np.inf),
             "deflection": bending + shear,
@@ -554,7 +562,7 @@ def pair_candidates(result: SandwichResult) -> pd.DataFrame:
     """The feasible pairs as candidates of a trade-off, best first.
 
     Columns: ``id`` (face+core), ``name`` ("face on core", short names), ``family`` (the face's),
-    ``rank``, mass, cost, co2, volume, ``t_face`` and ``t_core`` [m].
+    ``rank``, mass, cost, co2, energy, volume, ``t_face`` and ``t_core`` [m].
     """
     pairs = result.feasible
     return pd.DataFrame(
@@ -563,7 +571,7 @@ def pair_candidates(result: SandwichResult) -> pd.DataFrame:
             "name": pairs["face_short"] + " on " + pairs["core_short"],
             "family": pairs["face_family"],
             "rank": pairs["rank"].astype(int),
-            **{k: pairs[k] for k in ("mass", "cost", "co2", "volume", "t_face", "t_core")},
+            **{k: pairs[k] for k in ("mass", "cost", "co2", "energy", "volume", "t_face", "t_core")},
         }
     )
 
