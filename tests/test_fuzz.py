@@ -248,6 +248,21 @@ NAMED = [
     ("camera-dolly-boom.toml", "constraint", "safety_factor", 1e300, False, "safety_factor: 1e+300 is out"),
     ("camera-dolly-boom.toml", "section", "t", "1e-320 m", False, "section.t: '1e-320 m' is out of range"),
     ("shelf-plate.toml", "part", "width", "12345678901234567890123 mm", False, "part.width: '1234"),
+    # accepted before, now refused: keys that do not apply, non-numbers, NaN limits
+    (
+        "greenhouse-tie-rod.toml",
+        "part",
+        "support",
+        "cantilever",
+        False,
+        "part.support: support does not apply",
+    ),
+    ("greenhouse-tie-rod.toml", "part", "load", "end", False, "part.load: load does not apply to a tie"),
+    ("greenhouse-tie-rod.toml", "constraint", "safety_factor", True, False, "True is not a number"),
+    ("greenhouse-tie-rod.toml", "constraint", "safety_factor", "1.5", False, "'1.5' is not a number"),
+    ("camera-dolly-boom.toml", "screen", "elongation", ">= nan%", False, "screen.elongation: cannot read"),
+    ("camera-dolly-boom.toml", "screen", "E", ">= 1e999 GPa", False, "screen.E: the limit in"),
+    ("shelf-plate.toml", "section", "shape", "tube", False, "section.shape: a plate does not use"),
 ]
 
 

@@ -155,9 +155,9 @@ def _section_problems(
 def _constraint_problems(constraints: list[Any], fn: str | None, source: str) -> list[InputError]:
     out = []
     for i, item in enumerate(constraints):
-        if not isinstance(item, Mapping) or item.get("type") not in CONSTRAINT_KEYS:
-            continue
-        kind = item["type"]
+        kind = item.get("type") if isinstance(item, Mapping) else None
+        if not isinstance(kind, str) or kind not in CONSTRAINT_KEYS:
+            continue  # the model reports a missing or unknown type
         keys = list(CONSTRAINT_KEYS[kind])
         if kind == "stiffness" and fn is not None:
             keys = ["max_twist" if fn == "shaft" else "max_deflection"]

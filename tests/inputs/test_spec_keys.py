@@ -10,6 +10,8 @@ from pathlib import Path
 
 import openpyxl
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from selector.errors import InputError, SpecError
 from selector.inputs.materials import check_materials_file, load_materials
@@ -445,3 +447,38 @@ def test_the_readme_spec_snippets_load():
         data = copy.deepcopy(tomllib.loads(first))
         data["constraint"] = data["constraint"] + tomllib.loads(block)["constraint"]
         assert spec_from_dict(data, "README").constraint
+
+
+# ------------------------------------------------------------------ odd values never break the rules
+
+_LEAVES = st.one_of(
+    st.none(),
+    st.booleans(),
+    st.integers(),
+    st.floats(),
+    st.text(max_size=12),
+    st.sampled_from(["beam", "tie"]),
+)
+_VALUES = st.recursive(
+    _LEAVES,
+    lambda inner: st.lists(inner, max_size=3) | st.dictionaries(st.text(max_size=6), inner, max_size=3),
+    max_leaves=8,
+)
+
+
+@settings(max_examples=200, deadline=None, derandomize=True)
+@given(
+    part=st.dictionaries(st.sampled_from(["function", "support", "width", "form", "x"]), _VALUES, max_size=4),
+    section=st.dictionaries(st.sampled_from(["shape", "free", "b", "h", "min_wall"]), _VALUES, max_size=4),
+    constraint=st.lists(
+        st.dictionaries(st.sampled_from(["type", "criterion", "max_twist"]), _VALUES), max_size=3
+    )
+    | _VALUES,
+)
+def test_odd_values_give_spec_errors_only(part, section, constraint):
+    # A constraint "type" that is a list once raised TypeError (unhashable) in the key rules.
+    data = {"part": part, "section": section, "constraint": constraint}
+    try:
+        spec_from_dict(data, "x.toml")
+    except SpecError as err:
+        assert all(e.where.startswith("x.toml") for e in err.errors)
