@@ -25,6 +25,7 @@ from selector.inputs.spec import Spec
 from selector.mechanics import sandwich as sw
 from selector.mechanics.objectives import OBJECTIVE_FACTORS, OBJECTIVE_UNITS
 from selector.mechanics.product_forms import CLASS_MIN_WALL
+from selector.numeric import bisect_log
 from selector.suggest import did_you_mean
 
 DEFAULT_FACE_FAMILIES = ("metal", "composite")
@@ -240,13 +241,10 @@ def least_face(
     hi = np.broadcast_to(f_max, np.shape(t_c)).astype(float)
     possible = (hi >= lo) & (_worst(case, loads, faces, cores, hi, t_c) <= 1 + FEASIBLE_SLACK)
     done = _worst(case, loads, faces, cores, lo, t_c) <= 1
-    log_lo, log_hi = np.log(lo), np.log(np.maximum(hi, lo))
-    for _ in range(BISECTIONS):
-        mid = 0.5 * (log_lo + log_hi)
-        ok = _worst(case, loads, faces, cores, np.exp(mid), t_c) <= 1
-        log_hi = np.where(ok, mid, log_hi)
-        log_lo = np.where(ok, log_lo, mid)
-    t_f = np.where(done, lo, np.exp(log_hi))
+    _, upper = bisect_log(
+        lambda t_f: _worst(case, loads, faces, cores, t_f, t_c) <= 1, lo, np.maximum(hi, lo), BISECTIONS
+    )
+    t_f = np.where(done, lo, upper)
     return np.where(possible, t_f, np.nan)
 
 

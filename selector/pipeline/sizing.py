@@ -27,6 +27,7 @@ from selector.mechanics import sections as sec
 from selector.mechanics.loadcases import LoadCase
 from selector.mechanics.objectives import OBJECTIVE_FACTORS
 from selector.mechanics.product_forms import minimum_walls
+from selector.numeric import bisect_log
 from selector.pipeline import columns
 from selector.pipeline.derive import Derivation
 
@@ -225,16 +226,11 @@ def capped_dims(shape: str, dims: Mapping[str, float], family: str) -> tuple[dic
     while within(hi) is False:
         lo, hi = hi, hi * 2
     if within(hi) is None:  # walls would overlap before the limit is reached: find the thickest valid
-        valid = lo
-        for _ in range(60):
-            mid = math.sqrt(valid * hi)
-            valid, hi = (mid, hi) if within(mid) is not None else (valid, mid)
+        valid = float(bisect_log(lambda w: within(w) is None, lo, hi, 60)[0])
         if not within(valid):
             return thickened(valid), f"walls thickened as far as the shape allows for {family}"
         hi = valid
-    for _ in range(60):
-        mid = math.sqrt(lo * hi)
-        lo, hi = (mid, hi) if not within(mid) else (lo, mid)
+    hi = float(bisect_log(lambda w: bool(within(w)), lo, hi, 60)[1])
     before = build(shape, dims).phi_bending_stiffness
     after = build(shape, thickened(hi)).phi_bending_stiffness
     note = (
@@ -495,11 +491,8 @@ def _refine(
             hi /= 1.05
     if worst(hi) > 1:
         return dims, None
-    for _ in range(80):
-        m = math.sqrt(lo * hi)
-        lo, hi = (m, hi) if worst(m) > 1 else (lo, m)
     out = dict(dims)
-    out[name] = hi
+    out[name] = float(bisect_log(lambda m: not worst(m) > 1, lo, hi, 80)[1])
     return out, _geometry_values(design, out, case)
 
 
