@@ -48,7 +48,8 @@ def _utilisation_text(u: dict) -> str:
     return ", ".join(f"{mode} {value:.2f}" for mode, value in u.items())
 
 
-def _solid_line(selection: Any, units: str) -> str:
+def solid_line(selection: Any, units: str) -> str:
+    """One line on the best solid part sized for the same spec (or that none fits the depth)."""
     solid = selection.sandwich.solid
     if solid is None:
         return "best solid part: none within the depth allowed"
@@ -147,7 +148,7 @@ def render_sandwich(selection: Any, fmt: str, units: str = "si", top: int | None
         *(f"assumes: {a}" for a in selection.assumptions),
     ]
     foot = [
-        _solid_line(selection, units),
+        solid_line(selection, units),
         f"{len(result.feasible)} pairs sized; "
         f"{len(result.pairs) - len(result.feasible)} cannot meet every mode; "
         f"{len(result.excluded)} classes left out as face or core",

@@ -22,17 +22,21 @@ from dash import html
 from dash.development.base_component import Component
 
 from selector.errors import InputError
+from selector.inputs.properties import PROPERTIES, RATINGS
 from selector.inputs.spec import DEMO_SPEC, EXAMPLES
 from selector.outputs.explore import server as explore
-from selector.outputs.explore.callbacks import download, pick_class, refresh, sync_screen
+from selector.outputs.explore.callbacks import download, pick_class, refresh
+from selector.outputs.explore.fields import FIELDS
 from selector.outputs.explore.server import bind, make_app, serve
 from selector.outputs.explore.state import (
     MESSAGE_KEYS,
     SCREEN_ROWS,
+    SLIDER_ROWS,
     Controls,
     initial_controls,
     load_start,
     spec_data,
+    sync_screen,
 )
 
 SPEC = EXAMPLES / DEMO_SPEC
@@ -109,10 +113,14 @@ def test_make_app_builds_the_layout_with_every_control():
     }
     needed |= {"free", "index", "units", "families", "x-axis", "y-axis", "line-mode", "line-value"}
     needed |= {"get-csv", "get-xlsx", "get-report", "download"}
-    needed |= {f"screen-{r.symbol}" for r in SCREEN_ROWS} | {f"slider-{r.symbol}" for r in SCREEN_ROWS}
+    needed |= {f"screen-{r.symbol}" for r in SCREEN_ROWS} | {f"slider-{r.symbol}" for r in SLIDER_ROWS}
     needed |= {f"msg-{key}" for key in MESSAGE_KEYS}
+    needed |= {f.key for f in FIELDS} | {f"rating-{r}" for r in RATINGS}
+    needed |= {"exclude", "allow-brittle", "construction", "faces", "cores", "upload", "get-spec"}
     assert needed <= ids, sorted(needed - ids)
-    assert {"T_max", "price"} <= {r.symbol for r in SCREEN_ROWS} and len(SCREEN_ROWS) >= 4
+    # Every property can be screened; the usual ones have sliders too.
+    assert {r.symbol for r in SCREEN_ROWS} == set(PROPERTIES)
+    assert {"T_max", "T_min", "price", "K_IC"} <= {r.symbol for r in SLIDER_ROWS}
     # Every callback's inputs and outputs exist on the page (pattern ids aside).
     client = app.server.test_client()
     assert client.get("/").status_code == 200

@@ -2,17 +2,24 @@
 
 from __future__ import annotations
 
-import json
 import math
 import re
-from collections.abc import Mapping, Sequence
+from collections.abc import Mapping
+from dataclasses import replace
 from typing import Any
 
-import dash
-from dash import ALL, Input, Output, State, ctx, dcc
+from dash import dcc
 
 from selector.errors import InputError, SelectorError
-from selector.outputs.explore.layout import class_view, derivation_view, shortlist_view, summary_view
+from selector.outputs.explore import address
+from selector.outputs.explore.layout import (
+    class_view,
+    derivation_view,
+    sandwich_view,
+    shortlist_view,
+    summary_view,
+)
+from selector.outputs.explore.spec_files import start_from_upload
 from selector.outputs.explore.state import (
     LINE_MODES,
     MESSAGE_KEYS,
@@ -21,10 +28,12 @@ from selector.outputs.explore.state import (
     Controls,
     Start,
     View,
-    _route,
     _run,
-    _where,
-    sync_screen,
+    error_messages,
+    initial_controls,
+    spec_data,
+    start_with,
+    with_construction,
 )
 
 
@@ -47,14 +56,16 @@ def refresh(start: Start, c: Controls) -> View:
                 messages[row.key] = str(exc)
     if not c.families:
         messages["families"] = "screen.families: no family is chosen; tick at least one family"
-    selection = None
+    selection, data = None, None
     if not any(messages.values()):
         try:
-            selection = _run(start, c)
+            data = spec_data(start, c)
+            selection = _run_data(start, data)
         except SelectorError as exc:
-            messages[_route(_where(exc))] = str(exc)
+            messages |= error_messages(exc, data)
     if selection is None:
-        messages["general"] = "Not updated: correct the input marked in red."
+        said = messages["general"]
+        messages["general"] = f"Not updated: {said}" if said else "Not updated: correct the input marked in red."
         panel = class_view(start, None, c.chosen, c.units) if c.chosen else None
         return View(None, None, None, None, panel, messages)
 
@@ -91,15 +102,27 @@ def refresh(start: Start, c: Controls) -> View:
     except SelectorError as exc:
         messages["class"] = str(exc)
         panel = class_view(start, selection, None, c.units)
+    shortlist = shortlist_view(selection, c.units)
+    if selection.sandwich is not None:
+        shortlist = [*sandwich_view(selection, c.units), *shortlist]
     return View(
         figure,
-        shortlist_view(selection, c.units),
+        shortlist,
         summary_view(selection),
         derivation_view(selection),
         panel,
         messages,
         (axes[0], axes[1]),
+        address.encode(data or {}, c.view),
     )
+
+
+def _run_data(start: Start, data: dict[str, Any]) -> Any:
+    """The Selection for spec data (raises SelectorError on bad input)."""
+    from selector.inputs.spec import spec_from_dict
+    from selector.pipeline.selection import select
+
+    return select(spec_from_dict(data, source=start.name), start.table)
 
 
 def _line_value(text: str, messages: dict[str, str]) -> float | None:
@@ -150,13 +173,22 @@ def _slug(text: str) -> str:
 
 
 def download(start: Start, c: Controls, kind: str) -> tuple[dict[str, Any] | None, str]:
-    """The file for a download button ("csv", "xlsx" or "report") and a message.
+    """The file for a download button ("spec", "csv", "xlsx" or "report") and a message.
 
-    The CSV is the one ``selector rank -o shortlist.csv`` writes, the workbook the one
+    The spec is the edited spec as a TOML file that ``selector rank`` reads. The CSV is
+    the one ``selector rank -o shortlist.csv`` writes, the workbook the one
     ``-o shortlist.xlsx`` writes, the report that of ``selector report`` (showing the spec
     file as written, or as changed on the page in JSON).
     """
     try:
+        if kind == "spec":
+            from selector.inputs.spec import spec_from_dict
+            from selector.outputs.explore.spec_files import spec_text
+
+            data = spec_data(start, c)
+            spec = spec_from_dict(data, source=start.name)
+            text = spec_text(data, spec.title)
+            return dcc.send_string(text, f"{_slug(spec.title)}.toml", type="application/toml"), ""
         selection = _run(start, c, for_report=kind == "report")
         name = _slug(selection.spec.title)
         if kind == "csv":
@@ -182,158 +214,54 @@ def download(start: Start, c: Controls, kind: str) -> tuple[dict[str, Any] | Non
             return dcc.send_string(page, f"{name}-report.html", type="text/html"), ""
     except SelectorError as exc:
         return None, f"Nothing downloaded: {exc}"
-    raise InputError("download", f"{kind!r} is not a download", "csv, xlsx or report")
+    raise InputError("download", f"{kind!r} is not a download", "spec, csv, xlsx or report")
 
 
-# --------------------------------------------------------------------------- wiring
-
-_CONTROL_INPUTS: tuple[tuple[str, str], ...] = (
-    ("objective", "value"),
-    ("constraints", "value"),
-    ("stiffness-limit", "value"),
-    ("safety-factor", "value"),
-    ("free", "value"),
-    ("index", "value"),
-    ("units", "value"),
-    ("families", "value"),
-    *((f"op-{row.symbol}", "value") for row in SCREEN_ROWS),
-    *((f"screen-{row.symbol}", "value") for row in SCREEN_ROWS),
-    ("x-axis", "value"),
-    ("y-axis", "value"),
-    ("line-mode", "value"),
-    ("line-value", "value"),
-    ("class", "value"),
-)
-
-
-def _text(value: Any) -> str:
-    """A control's value as text: a request that sends a number, list or object where the page
-    sends text gets that control's own error message, not a failure."""
-    if value is None:
-        return ""
-    return value if isinstance(value, str) else json.dumps(value, default=str)
-
-
-def _texts(value: Any) -> tuple[str, ...]:
-    """A multiple-choice control's values as text (one odd value becomes one odd choice)."""
-    if value is None:
-        return ()
-    return tuple(_text(v) for v in value) if isinstance(value, list | tuple) else (_text(value),)
-
-
-def controls_from(values: Sequence[Any]) -> Controls:
-    """Controls from the page's values, in the order of ``_CONTROL_INPUTS``; any value is accepted."""
-    n = len(SCREEN_ROWS)
-    (objective, constraints, limit, factor, free, index, units, families) = values[:8]
-    ops, texts = values[8 : 8 + n], values[8 + n : 8 + 2 * n]
-    x, y, mode, line_value, chosen = values[8 + 2 * n :]
-    return Controls(
-        objective=_text(objective),
-        constraints=_texts(constraints),
-        stiffness_limit=_text(limit),
-        safety_factor=_text(factor),
-        free=_text(free),
-        index=_text(index),
-        units=units if units in ("si", "us") else "si",
-        families=_texts(families),
-        screens=tuple(
-            (_text(op) or row.op, _text(text)) for row, op, text in zip(SCREEN_ROWS, ops, texts, strict=True)
-        ),
-        x=_text(x),
-        y=_text(y),
+def _view_controls(c: Controls, view: dict[str, str]) -> Controls:
+    """Controls with the view read from a page address (axes, index line, chosen class)."""
+    mode = view.get("line", c.line_mode)
+    return replace(
+        c,
+        x=view.get("x", ""),
+        y=view.get("y", ""),
         line_mode=mode if mode in LINE_MODES else "leader",
-        line_value=_text(line_value),
-        chosen=_text(chosen) or None,
+        line_value=view.get("value", ""),
+        chosen=view.get("class") or None,
     )
 
 
-def _keep(value: Any) -> Any:
-    return dash.no_update if value is None else value
+def reload(
+    start: Start,
+    current: Start,
+    c: Controls,
+    trigger: str,
+    contents: Any = None,
+    filename: Any = None,
+    construction: Any = None,
+    fragment: Any = None,
+) -> tuple[Start | None, Controls | None, str]:
+    """A new spec for the editor: uploaded, switched between solid and sandwich, or read from the address.
 
-
-def wire(app: dash.Dash, start: Start) -> None:
-    """Connect the page's controls to ``refresh``, ``sync_screen``, ``pick_class`` and ``download``."""
-    inputs = [Input(cid, prop) for cid, prop in _CONTROL_INPUTS]
-    states = [State(cid, prop) for cid, prop in _CONTROL_INPUTS]
-    outputs = [
-        Output("chart", "figure"),
-        Output("shortlist", "children"),
-        Output("summary", "children"),
-        Output("derivation", "children"),
-        Output("class-panel", "children"),
-        Output("x-axis", "placeholder"),
-        Output("y-axis", "placeholder"),
-        *(Output(f"msg-{key}", "children") for key in MESSAGE_KEYS),
-    ]
-
-    @app.callback(*outputs, *inputs)
-    def _refresh(*values: Any) -> tuple:
-        view = refresh(start, controls_from(values))
-        placeholders = (
-            (f"as the index: {view.axes[0]}", f"as the index: {view.axes[1]}")
-            if view.axes[0]
-            else (dash.no_update, dash.no_update)
-        )
-        return (
-            _keep(view.figure),
-            _keep(view.shortlist),
-            _keep(view.summary),
-            _keep(view.derivation),
-            _keep(view.class_panel),
-            *placeholders,
-            *(view.messages.get(key, "") for key in MESSAGE_KEYS),
-        )
-
-    for row in SCREEN_ROWS:
-        _wire_screen(app, row.symbol)
-
-    @app.callback(
-        Output("class", "value"),
-        Output("line-mode", "value"),
-        Input("chart", "clickData"),
-        Input({"type": "pick", "id": ALL}, "n_clicks"),
-        Input("class", "value"),
-        Input("line-value", "value"),
-        State("line-mode", "value"),
-        prevent_initial_call=True,
-    )
-    def _pick(click_data: Any, _rows: Any, chosen: Any, line_value: Any, mode: Any) -> tuple:
-        trigger = ctx.triggered_id
-        value = ctx.triggered[0].get("value") if ctx.triggered else None
-        new_chosen, new_mode = pick_class(trigger, value, click_data, chosen, line_value, mode)
-        if new_chosen == chosen and new_mode == mode:
-            raise dash.exceptions.PreventUpdate
-        return new_chosen, new_mode
-
-    @app.callback(
-        Output("download", "data"),
-        Output("msg-download", "children"),
-        Input("get-csv", "n_clicks"),
-        Input("get-xlsx", "n_clicks"),
-        Input("get-report", "n_clicks"),
-        *states,
-        prevent_initial_call=True,
-    )
-    def _download(_csv: Any, _xlsx: Any, _report: Any, *values: Any) -> tuple:
-        kind = {"get-csv": "csv", "get-xlsx": "xlsx", "get-report": "report"}.get(str(ctx.triggered_id))
-        if kind is None:
-            raise dash.exceptions.PreventUpdate
-        data, message = download(start, controls_from(values), kind)
-        return _keep(data), message
-
-
-def _wire_screen(app: dash.Dash, symbol: str) -> None:
-    @app.callback(
-        Output(f"screen-{symbol}", "value"),
-        Output(f"slider-{symbol}", "value"),
-        Input(f"slider-{symbol}", "value"),
-        Input(f"screen-{symbol}", "value"),
-        State(f"op-{symbol}", "value"),
-        prevent_initial_call=True,
-    )
-    def _sync(slider: Any, text: Any, op: Any) -> tuple:
-        trigger = {f"slider-{symbol}": "slider", f"screen-{symbol}": "text"}.get(str(ctx.triggered_id))
-        new_text, new_slider = sync_screen(symbol, trigger, slider, text, op or ">=")
-        if new_text is None and new_slider is None:
-            raise dash.exceptions.PreventUpdate
-        return _keep(new_text), _keep(new_slider)
+    ``start`` is what the explorer was started with, ``current`` the spec on the page and
+    ``c`` its controls. Returns the new Start and its controls, or (None, None, message)
+    when nothing changes; the message is "" unless the input was bad.
+    """
+    try:
+        if trigger == "upload":
+            new = start_from_upload(start, contents, filename)
+            controls = replace(initial_controls(new), chosen=c.chosen)
+            return new, controls, ""
+        if trigger == "construction":
+            data = with_construction(start, spec_data(current, c), str(construction))
+            new = start_with(start, data, current.name)
+            return new, _view_controls(initial_controls(new), c.view), ""
+        if trigger == "address":
+            found = address.decode(fragment)
+            if found is None:
+                return None, None, ""
+            data, view = found
+            new = start_with(start, data, f"{start.name} (as in the page address)")
+            return new, _view_controls(initial_controls(new), view), ""
+    except SelectorError as exc:
+        return None, None, f"Not loaded: {exc}"
+    return None, None, ""

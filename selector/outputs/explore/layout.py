@@ -4,26 +4,16 @@ from __future__ import annotations
 
 import math
 import re
-from collections.abc import Mapping
 from typing import Any
 
-import numpy as np
 import pandas as pd
 from dash import dcc, html
 
-from selector.inputs.properties import FAMILIES, PROPERTIES
-from selector.inputs.spec import Spec
+from selector.inputs.properties import PROPERTIES
 from selector.inputs.units import format_number
-from selector.outputs.explore.state import (
-    EDITABLE,
-    SCREEN_ROWS,
-    Controls,
-    ScreenRow,
-    Start,
-    _case,
-    _stiffness_field,
-    sync_screen,
-)
+from selector.outputs.explore.editor import editor, field_box, message
+from selector.outputs.explore.state import Controls, Start
+from selector.pipeline.selection import CAUTION
 from selector.pipeline import columns
 
 _FORMULA = re.compile(
@@ -116,6 +106,42 @@ def shortlist_view(selection: Any, units: str) -> Any:
     ]
 
 
+SANDWICH_ROWS = 25
+"""Face × core pairs listed on the page (the best first; the downloads hold them all)."""
+
+
+def sandwich_view(selection: Any, units: str) -> Any:
+    """The face × core pairs (best first), the best solid part beside them, and the model's assumptions."""
+    from selector.outputs.sandwich_tables import pairs_frame, solid_line
+
+    frame = pairs_frame(selection, units, top=SANDWICH_ROWS)
+    lengths = [c for c in frame.columns if c.startswith(("t_face [", "t_core [", "depth ["))]
+    values = [c for c in frame.columns if c.startswith(("mass [", "cost [", "co2 ["))]
+    head = ["rank", "face", "core", *lengths, *values, "governing", "utilisation"]
+    rows = []
+    for r in frame.to_dict(orient="records"):
+        cells: list[Any] = [str(r["rank"]), r["face_name"], r["core_name"]]
+        cells += [_number(r[col]) for col in (*lengths, *values)]
+        cells.append(r["governing"])
+        cells.append(", ".join(f"{mode} {_number(u, 2)}" for mode, u in r["utilisation"].items()))
+        rows.append(html.Tr([html.Td(cell) for cell in cells], **{"data-pair": f"{r['face']}/{r['core']}"}))
+    feasible = len(selection.sandwich.feasible)
+    return [
+        html.H3(f"Sandwich pairs ({feasible} feasible; the best {min(feasible, SANDWICH_ROWS)} shown)"),
+        html.Div(
+            html.Table(
+                [html.Thead(html.Tr([html.Th(h) for h in head])), html.Tbody(rows)],
+                id="pairs-table",
+                className="grid",
+            ),
+            className="scroll",
+        ),
+        html.P(solid_line(selection, units), id="best-solid"),
+        html.Ul([html.Li(a) for a in selection.sandwich.assumptions], className="small"),
+        html.H3("Solid parts for the same spec"),
+    ]
+
+
 def summary_view(selection: Any) -> Any:
     ranked = f"{selection.ranked_by} of the sized part" if selection.sized else "merit index"
     return [
@@ -200,201 +226,18 @@ def class_view(start: Start, selection: Any, class_id: str | None, units: str) -
 # --------------------------------------------------------------------------- layout
 
 
-def _message(key: str) -> Any:
-    return html.Div(id=f"msg-{key}", className="msg", role="alert")
-
-
-def _field(label: str, control: Any, key: str | None, hint: str | None = None) -> Any:
-    parts = [html.Label(label, className="label"), control]
-    if hint:
-        parts.append(html.Div(hint, className="hint"))
-    if key:
-        parts.append(_message(key))
-    return html.Div(parts, className="field")
-
-
-MAX_MARKS = 6
-"""At most this many (plus one) labelled marks under a slider."""
-
-
-def _decade(k: int) -> str:
-    """The label of 10^k under a log slider: 0.01, 1, 1000, 1e5."""
-    return format_number(10.0**k) if -2 <= k <= 4 else f"1e{k}"
-
-
-def slider_scale(table: pd.DataFrame, symbol: str) -> dict[str, Any]:
-    """Slider bounds and marks spanning the table's values (decades of log10 on a log property)."""
-    prop = PROPERTIES[symbol]
-    low = table[prop.low].to_numpy(dtype=float)
-    high = table[prop.high].to_numpy(dtype=float)
-    lo, hi = float(np.nanmin(low)), float(np.nanmax(high))
-    if prop.log:
-        lo = math.floor(math.log10(max(lo, 1e-12)))
-        hi = math.ceil(math.log10(max(hi, 1e-12)))
-        every = max(1, math.ceil((hi - lo) / MAX_MARKS))
-        marks = {k: _decade(k) for k in range(lo, hi + 1, every)}
-        return {"min": lo, "max": hi, "step": 0.01, "marks": marks}
-    lo, hi = 100 * math.floor(lo / 100), 100 * math.ceil(hi / 100)
-    span = hi - lo
-    every = next((s for s in (100, 250, 500, 1000, 2500) if span / s <= MAX_MARKS), 5000)
-    first = every * math.ceil(lo / every)
-    marks = {v: format_number(v) for v in range(int(first), int(hi) + 1, every)}
-    return {"min": lo, "max": hi, "step": 1, "marks": marks}
-
-
-def _slider_value(symbol: str, op: str, text: str, scale: Mapping[str, Any]) -> float:
-    """Where a screen's slider starts: at its value, else at the end that rejects nothing."""
-    value = sync_screen(symbol, "text", None, text, op)[1]
-    if value is None:
-        return scale["max"] if op == "<=" else scale["min"]
-    return min(max(value, scale["min"]), scale["max"])
-
-
-def _screen_row(start: Start, row: ScreenRow, op: str, text: str) -> Any:
-    prop = PROPERTIES[row.symbol]
-    scale = slider_scale(start.table, row.symbol)
-    return html.Div(
-        [
-            html.Label(
-                [f"{prop.name.capitalize()} ({row.symbol})", html.Span(f" {prop.label}", className="hint")],
-                className="label",
-            ),
-            html.Div(
-                [
-                    dcc.RadioItems(
-                        id=f"op-{row.symbol}",
-                        options={">=": "≥", "<=": "≤"},
-                        value=op,
-                        inline=True,
-                        className="op",
-                    ),
-                    dcc.Input(
-                        id=f"screen-{row.symbol}",
-                        value=text,
-                        type="text",
-                        debounce=True,
-                        placeholder="no screen",
-                        className="value",
-                    ),
-                ],
-                className="inline",
-            ),
-            _message(row.key),
-            dcc.Slider(
-                id=f"slider-{row.symbol}",
-                value=_slider_value(row.symbol, op, text, scale),
-                updatemode="mouseup",
-                allow_direct_input=False,
-                **scale,
-            ),
-        ],
-        className="field screen",
-    )
-
-
-def _part_text(spec: Spec) -> str:
-    part = spec.part
-    words = [part.function]
-    words += [w for w in (part.support, f"{part.load} load" if part.load else None) if w]
-    loads = [
-        f"{name} {getattr(part, name)}"
-        for name in ("length", "force", "torque", "pressure", "energy", "width", "radius")
-        if getattr(part, name)
-    ]
-    dims = ", ".join(f"{k} {v}" for k, v in spec.section.dims.items())
-    section = f"section: {spec.section.shape}" + (f" ({dims})" if dims else "")
-    return "; ".join([", ".join(words), *([", ".join(loads)] if loads else []), section])
-
-
 def layout(start: Start, c: Controls) -> Any:
-    """The page: requirement and screens on the left; chart, shortlist, index and class data."""
-    from selector.mechanics.objectives import OBJECTIVES
-
-    spec = start.spec
-    case = _case(start)
-    kept = {k: v for k, v in spec.screen.items() if k not in EDITABLE}
-    kept_text = [html.Li(f"{k} {', '.join(v) if isinstance(v, list) else v}") for k, v in kept.items()]
-    stiff_label = "Max twist (stiffness)" if _stiffness_field(start) == "max_twist" else "Max deflection"
-    requirement = html.Section(
-        [
-            html.H2("Requirement"),
-            html.P(_part_text(spec), className="small"),
-            _field(
-                "Minimise",
-                dcc.Dropdown(id="objective", options=list(OBJECTIVES), value=c.objective, clearable=False),
-                "objective",
-            ),
-            _field(
-                "Constraints",
-                dcc.Checklist(
-                    id="constraints", options=list(case.constraints), value=list(c.constraints), inline=True
-                ),
-                "constraints",
-            ),
-            _field(
-                stiff_label,
-                dcc.Input(id="stiffness-limit", value=c.stiffness_limit, debounce=True, type="text"),
-                "stiffness_limit",
-            ),
-            _field(
-                "Safety factor on strength",
-                dcc.Input(id="safety-factor", value=c.safety_factor, debounce=True, type="text"),
-                "safety_factor",
-            ),
-            _field(
-                "Free variable",
-                dcc.Dropdown(id="free", options=list(case.allowed_free), value=c.free, clearable=False),
-                "free",
-            ),
-            _field(
-                "Rank by a typed index",
-                dcc.Input(
-                    id="index", value=c.index, debounce=True, type="text", placeholder="the derived one"
-                ),
-                "index",
-                "e.g. E^(1/3)/rho; empty ranks by the derived index",
-            ),
-            _field(
-                "Units",
-                dcc.RadioItems(
-                    id="units", options={"si": "SI", "us": "US customary"}, value=c.units, inline=True
-                ),
-                "units",
-            ),
-        ]
-    )
-    screens = html.Section(
-        [
-            html.H2("Screens"),
-            *[
-                _screen_row(start, row, op, text)
-                for row, (op, text) in zip(SCREEN_ROWS, c.screens, strict=True)
-            ],
-            _field(
-                "Families",
-                dcc.Checklist(id="families", options=list(FAMILIES), value=list(c.families), inline=True),
-                "families",
-            ),
-            html.Div(
-                [
-                    html.Div("Other screens of the spec (kept as written):", className="label"),
-                    html.Ul(kept_text, className="small"),
-                ]
-            )
-            if kept_text
-            else None,
-        ]
-    )
+    """The page: the spec editor on the left; chart, shortlist, index and class data."""
     symbols = html.Datalist(id="symbols", children=[html.Option(value=s) for s in PROPERTIES])
     chart_bar = html.Div(
         [
-            _field(
+            field_box(
                 "x axis", dcc.Input(id="x-axis", value=c.x, list="symbols", debounce=True, type="text"), "x"
             ),
-            _field(
+            field_box(
                 "y axis", dcc.Input(id="y-axis", value=c.y, list="symbols", debounce=True, type="text"), "y"
             ),
-            _field(
+            field_box(
                 "Index line",
                 dcc.RadioItems(
                     id="line-mode",
@@ -408,7 +251,7 @@ def layout(start: Start, c: Controls) -> Any:
                 ),
                 "line",
             ),
-            _field(
+            field_box(
                 "Index value",
                 dcc.Input(
                     id="line-value",
@@ -448,7 +291,7 @@ def layout(start: Start, c: Controls) -> Any:
                 [
                     dcc.Graph(id="chart", config={"displaylogo": False}, className="chart"),
                     html.Aside(
-                        [html.H2("Class"), class_picker, _message("class"), html.Div(id="class-panel")],
+                        [html.H2("Class"), class_picker, message("class"), html.Div(id="class-panel")],
                         className="classbox",
                     ),
                 ],
@@ -460,10 +303,22 @@ def layout(start: Start, c: Controls) -> Any:
             html.Section([html.H2("Merit index"), html.Div(id="derivation")]),
         ]
     )
+    spec = start.spec
     header = html.Header(
         [
-            html.H1(spec.title),
-            html.P(f"{start.name}" + (f" — {spec.notes}" if spec.notes else ""), className="small"),
+            html.H1(spec.title, id="title"),
+            html.P(
+                f"{start.name}" + (f" — {spec.notes}" if spec.notes else ""),
+                id="spec-name",
+                className="small",
+            ),
+            html.P(CAUTION, className="caution-banner"),
         ]
     )
-    return html.Div([header, html.Div([html.Nav([requirement, screens]), main], className="page")])
+    state = [
+        dcc.Location(id="address", refresh=False),
+        dcc.Store(id="base"),
+        dcc.Store(id="address-state"),
+        html.Div(id="address-echo", hidden=True),
+    ]
+    return html.Div([*state, header, html.Div([html.Nav(editor(start, c)), main], className="page")])

@@ -11,10 +11,10 @@ from typing import Any
 import dash
 
 from selector.errors import InputError
-from selector.outputs.explore.callbacks import wire
 from selector.outputs.explore.guard import install as install_guard
 from selector.outputs.explore.layout import layout
 from selector.outputs.explore.state import initial_controls, load_start
+from selector.outputs.explore.wiring import wire
 
 HOST = "127.0.0.1"
 """The only address the explorer listens on."""

@@ -13,9 +13,16 @@ from typing import Any
 import pandas as pd
 
 from selector.errors import InputError, SelectorError
-from selector.inputs.properties import FAMILIES, PROPERTIES
+from selector.inputs.properties import FAMILIES, PROPERTIES, RATING_LEVELS, RATINGS
 from selector.inputs.spec import Spec
 from selector.inputs.units import format_number
+from selector.outputs.explore.fields import (
+    CONSTRAINT_FIELDS,
+    FIELD_BY_PATH,
+    FIELDS,
+    SANDWICH_SHAPE,
+    SpecField,
+)
 
 TOP_NAMED = 5
 """Shortlisted classes named on the chart."""
@@ -26,26 +33,38 @@ _OPERATOR = re.compile(r"^\s*(>=|<=|>|<|≥|≤)\s*")
 
 @dataclass(frozen=True)
 class ScreenRow:
-    """One screen with its own input and slider: the property and its usual comparison."""
+    """One screen: the property, its usual comparison, and whether it has a slider too."""
 
     symbol: str
     op: str
+    slider: bool = False
 
     @property
     def key(self) -> str:
         return f"screen_{self.symbol}"
 
 
+_SLIDER_ROWS = (("T_max", ">="), ("T_min", "<="), ("price", "<="), ("rho", "<="), ("E", ">="))
+_SLIDER_ROWS += (("sigma_y", ">="), ("K_IC", ">="))
+_LOWER_IS_BETTER = {"rho", "price", "co2", "energy", "alpha", "T_min"}
 SCREEN_ROWS: tuple[ScreenRow, ...] = (
-    ScreenRow("T_max", ">="),
-    ScreenRow("price", "<="),
-    ScreenRow("rho", "<="),
-    ScreenRow("E", ">="),
-    ScreenRow("sigma_y", ">="),
+    *(ScreenRow(symbol, op, slider=True) for symbol, op in _SLIDER_ROWS),
+    *(
+        ScreenRow(symbol, "<=" if symbol in _LOWER_IS_BETTER else ">=")
+        for symbol in PROPERTIES
+        if symbol not in dict(_SLIDER_ROWS)
+    ),
 )
-"""The screens shown as inputs with sliders; the spec's other screens are kept as written."""
+"""A screen for every property: the usual ones with sliders, the rest as inputs alone."""
+SLIDER_ROWS = tuple(row for row in SCREEN_ROWS if row.slider)
 
-EDITABLE = {row.symbol for row in SCREEN_ROWS} | {"families"}
+SCREEN_LISTS = ("families", "exclude_families", "exclude", "allow_brittle")
+"""Screen keys that are not limits: the families allowed or left out, classes left out, brittle classes."""
+
+
+def rating_key(rating: str) -> str:
+    return f"rating_{rating}"
+
 
 MESSAGE_KEYS: tuple[str, ...] = (
     "objective",
@@ -56,7 +75,14 @@ MESSAGE_KEYS: tuple[str, ...] = (
     "index",
     "units",
     "families",
+    "exclude",
+    "construction",
+    "faces",
+    "cores",
+    "upload",
+    *(f.key for f in FIELDS),
     *(row.key for row in SCREEN_ROWS),
+    *(rating_key(r) for r in RATINGS),
     "x",
     "y",
     "line",
@@ -76,6 +102,7 @@ class Start:
         name: the spec file's name (in messages and download names).
         text: the spec file as written.
         table: the materials table (built-in classes plus the spec's own files).
+        folder: the spec file's folder (where relative materials files are found).
     """
 
     spec: Spec
@@ -83,6 +110,7 @@ class Start:
     name: str
     text: str
     table: pd.DataFrame
+    folder: str = "."
 
 
 @dataclass(frozen=True)
@@ -103,6 +131,13 @@ class Controls:
         line_mode: where the index line goes: "leader", "class" (the chosen class) or "value".
         line_value: the index value typed for the line, in the chart's units.
         chosen: the id of the class whose data is shown.
+        fields: (path, text) of the spec fields of ``fields.FIELDS``; "" leaves the key out.
+            A path not listed keeps the loaded spec's value.
+        ratings: (rating, least level or "") for every durability rating.
+        exclude: ids of classes left out.
+        allow_brittle: whether brittle classes may be ranked on strength.
+        faces, cores: the families or class ids a sandwich's faces and cores come from
+            (empty: the defaults).
     """
 
     objective: str
@@ -119,6 +154,30 @@ class Controls:
     line_mode: str = "leader"
     line_value: str = ""
     chosen: str | None = None
+    fields: tuple[tuple[str, str], ...] = ()
+    ratings: tuple[tuple[str, str], ...] = ()
+    exclude: tuple[str, ...] = ()
+    allow_brittle: bool = False
+    faces: tuple[str, ...] = ()
+    cores: tuple[str, ...] = ()
+
+    def field(self, path: str) -> str | None:
+        """The text of one spec field, or None when the controls leave it as loaded."""
+        return dict(self.fields).get(path)
+
+    def with_field(self, path: str, text: str) -> Controls:
+        """A copy with one spec field's text changed (``part.force``, ``section.d`` ...)."""
+        if path not in FIELD_BY_PATH:
+            raise KeyError(path)
+        kept = [(p, t) for p, t in self.fields if p != path]
+        return replace(self, fields=(*kept, (path, text)))
+
+    @property
+    def view(self) -> dict[str, str]:
+        """What the page shows beside the spec: axes, the index line and the chosen class."""
+        return {"x": self.x, "y": self.y, "line": self.line_mode, "value": self.line_value} | (
+            {"class": self.chosen} if self.chosen else {}
+        )
 
     def with_screen(self, symbol: str, text: str, op: str | None = None) -> Controls:
         """A copy with one screen's value (and comparison) changed."""
@@ -141,6 +200,7 @@ class View:
         class_panel: the chosen class's data and sources.
         messages: key of MESSAGE_KEYS → message ("" clears it).
         axes: the axes drawn (shown as the axis inputs' placeholders).
+        address: the page address fragment that brings this view back (None: keep the one shown).
     """
 
     figure: Any
@@ -150,6 +210,7 @@ class View:
     class_panel: Any
     messages: Mapping[str, str]
     axes: tuple[str, str] = ("", "")
+    address: str | None = None
 
 
 def load_start(spec_path: str | Path | None = None) -> Start:
@@ -162,7 +223,34 @@ def load_start(spec_path: str | Path | None = None) -> Start:
     files = [str(path.parent / f) for f in spec.materials.files]
     table = load_materials(files, builtin=spec.materials.builtin)
     text = path.read_text(encoding="utf-8")
-    return Start(spec, spec.model_dump(exclude_none=True), path.name, text, table)
+    data = spec.model_dump(exclude_none=True)
+    return Start(spec, data, path.name, text, table, str(path.parent.resolve()))
+
+
+def start_with(start: Start, data: Any, name: str, text: str = "") -> Start:
+    """A Start for other spec data (an uploaded file, a bookmarked view) on the same materials.
+
+    Relative materials files are found beside the spec the explorer was started with.
+
+    Raises:
+        SpecError: the data is not a valid spec.
+        InputError: it names materials other than those the explorer has loaded.
+    """
+    from selector.inputs.spec import spec_from_dict
+
+    if not isinstance(data, dict):
+        raise InputError(name, f"holds {type(data).__name__}, not a spec", "a spec: tables such as [part]")
+    spec = spec_from_dict(data, source=name)
+    files = [str((Path(start.folder) / f).resolve()) for f in spec.materials.files]
+    loaded = [str(Path(f).resolve()) for f in start.spec.materials.files]
+    if files != loaded or spec.materials.builtin != start.spec.materials.builtin:
+        raise InputError(
+            f"{name}: materials",
+            "names materials other than those the explorer has loaded",
+            f"the materials of {start.name}, or start `selector explore` with this spec to use its own",
+        )
+    spec = spec.model_copy(update={"materials": spec.materials.model_copy(update={"files": files})})
+    return Start(spec, spec.model_dump(exclude_none=True), name, text, start.table, start.folder)
 
 
 def _split_limit(text: str) -> tuple[str | None, str]:
@@ -189,6 +277,43 @@ def _case(start: Start) -> Any:
     return load_case(part.function, part.support, part.load)
 
 
+def _field_text(value: Any) -> str:
+    if value is None:
+        return ""
+    if isinstance(value, float | int) and not isinstance(value, bool):
+        return format_number(float(value), 6)
+    return str(value)
+
+
+def _field_value(spec: Spec, f: SpecField) -> Any:
+    """The value a spec gives for a field (None when it gives none)."""
+    if f.constraint is not None:
+        item = next((c for c in spec.constraint if c.type == f.constraint), None)
+        if item is None or (f.name == "safety_factor" and "safety_factor" not in item.model_fields_set):
+            return None
+        return getattr(item, f.name)
+    table = {"part": spec.part, "section": spec.section, "sandwich": spec.sandwich}[f.table]
+    return None if table is None else getattr(table, f.name)
+
+
+def _is_rating_minimum(value: Any) -> bool:
+    return (
+        isinstance(value, str) and _split_limit(value)[0] == ">=" and _split_limit(value)[1] in RATING_LEVELS
+    )
+
+
+def _editable_screen(key: str, value: Any) -> bool:
+    """Whether the controls edit a screen of the spec (the rest is kept as written)."""
+    if key in RATINGS:
+        return _is_rating_minimum(value)
+    return key in PROPERTIES or key in SCREEN_LISTS
+
+
+def kept_screens(spec: Spec) -> dict[str, Any]:
+    """The spec's screens no control edits (a rating with an upper limit), kept as written."""
+    return {k: v for k, v in spec.screen.items() if not _editable_screen(k, v)}
+
+
 def initial_controls(start: Start) -> Controls:
     """The controls as the spec sets them."""
     spec = start.spec
@@ -204,7 +329,12 @@ def initial_controls(start: Start) -> Controls:
             screens.append((op or row.op, value))
         else:
             screens.append((row.op, ""))
-    families = tuple(spec.screen.get("families") or FAMILIES)
+    ratings = tuple(
+        (r, _split_limit(v)[1] if _is_rating_minimum(v := spec.screen.get(r)) else "") for r in RATINGS
+    )
+    left_out = set(spec.screen.get("exclude_families") or ())
+    families = tuple(f for f in (spec.screen.get("families") or FAMILIES) if f not in left_out)
+    sandwich = spec.sandwich
     return Controls(
         objective=spec.objective.minimize,
         constraints=tuple(c.type for c in spec.constraint),
@@ -215,56 +345,142 @@ def initial_controls(start: Start) -> Controls:
         units=spec.units,
         families=families,
         screens=tuple(screens),
+        fields=tuple((f.path, _field_text(_field_value(spec, f))) for f in FIELDS),
+        ratings=ratings,
+        exclude=tuple(spec.screen.get("exclude") or ()),
+        allow_brittle=bool(spec.screen.get("allow_brittle", False)),
+        faces=tuple(sandwich.faces or ()) if sandwich else (),
+        cores=tuple(sandwich.cores or ()) if sandwich else (),
     )
+
+
+def _set(table: dict[str, Any], key: str, text: str, value: Any = None) -> None:
+    """Put a field's value in its table, or take the key out when its text is empty."""
+    if text.strip():
+        table[key] = text.strip() if value is None else value
+    else:
+        table.pop(key, None)
+
+
+def _constraint_items(start: Start, c: Controls, fields: dict[str, str]) -> list[dict[str, Any]]:
+    """The spec's constraints as the controls set them: the ticked types with their fields."""
+    base = {item["type"]: item for item in start.data.get("constraint", [])}
+    chosen = [t for t in base if t in c.constraints]
+    chosen += [t for t in c.constraints if t not in base and t not in chosen]
+    stiffness_field = _stiffness_field(start)
+    items = []
+    for kind in chosen:
+        item = dict(base.get(kind, {"type": kind}))
+        at = len(items)
+        if kind == "stiffness":
+            _set(item, stiffness_field, c.stiffness_limit)
+        if kind == "strength":
+            text = c.safety_factor
+            _set(
+                item,
+                "safety_factor",
+                text,
+                _number(text, start.name, at, "safety_factor") if text.strip() else None,
+            )
+        for f in CONSTRAINT_FIELDS:
+            if f.constraint == kind and f.path in fields:
+                text = fields[f.path]
+                value = _number(text, start.name, at, f.name) if f.kind == "number" and text.strip() else None
+                _set(item, f.name, text, value)
+        items.append(item)
+    return items
+
+
+def _screen_data(start: Start, c: Controls) -> dict[str, Any]:
+    screen = kept_screens(start.spec)
+    screen |= {k: v for k, v in start.data.get("screen", {}).items() if k in RATINGS and not c.ratings}
+    for row, (op, text) in zip(SCREEN_ROWS, c.screens, strict=False):
+        if text.strip():
+            screen[row.symbol] = f"{op} {text.strip()}"
+    for rating, level in c.ratings:
+        if level.strip():
+            screen[rating] = f">= {level.strip()}"
+    if set(c.families) != set(FAMILIES):
+        screen["families"] = [f for f in FAMILIES if f in c.families] or list(c.families)
+    if c.exclude:
+        screen["exclude"] = list(c.exclude)
+    if c.allow_brittle:
+        screen["allow_brittle"] = True
+    return screen
 
 
 def spec_data(start: Start, c: Controls) -> dict[str, Any]:
     """The loaded spec's dict with the controls' changes (to be validated by ``spec_from_dict``)."""
     data = copy.deepcopy(start.data)
     data["objective"] = {"minimize": c.objective}
-    data.setdefault("section", {})["free"] = c.free
     data["units"] = c.units
     if c.index.strip():
         data["index"] = c.index.strip()
     else:
         data.pop("index", None)
-    base = {item["type"]: item for item in start.data.get("constraint", [])}
-    chosen = [t for t in base if t in c.constraints]
-    chosen += [t for t in c.constraints if t not in base and t not in chosen]
-    field = _stiffness_field(start)
-    constraints: list[dict[str, Any]] = []
-    for kind in chosen:
-        item = dict(base.get(kind, {"type": kind}))
-        if kind == "stiffness":
-            item.pop(field, None)
-            if c.stiffness_limit.strip():
-                item[field] = c.stiffness_limit.strip()
-        if kind == "strength":
-            item.pop("safety_factor", None)
-            if c.safety_factor.strip():
-                item["safety_factor"] = _number(c.safety_factor, start.name, len(constraints))
-        constraints.append(item)
-    data["constraint"] = constraints
-    screen = {k: v for k, v in data.get("screen", {}).items() if k not in EDITABLE}
-    for row, (op, text) in zip(SCREEN_ROWS, c.screens, strict=True):
-        if text.strip():
-            screen[row.symbol] = f"{op} {text.strip()}"
-    if set(c.families) != set(FAMILIES):
-        screen["families"] = [f for f in FAMILIES if f in c.families]
-    data["screen"] = screen
+    fields = dict(c.fields)
+    for path, text in fields.items():
+        f = FIELD_BY_PATH.get(path)
+        if f is not None and f.table in ("part", "section", "sandwich"):
+            _set(data.setdefault(f.table, {}), f.name, text)
+    data.setdefault("section", {})["free"] = c.free
+    if data["section"].get("shape") == SANDWICH_SHAPE:
+        sandwich = data.setdefault("sandwich", {})
+        for key, chosen in (("faces", c.faces), ("cores", c.cores)):
+            if chosen:
+                sandwich[key] = list(chosen)
+            else:
+                sandwich.pop(key, None)
+        if not sandwich:
+            data.pop("sandwich")
+    else:
+        data.pop("sandwich", None)
+    data["constraint"] = _constraint_items(start, c, fields)
+    data["screen"] = _screen_data(start, c)
     return data
 
 
-def _number(text: str, source: str, index: int) -> float:
-    """The safety factor typed in its control as a number (the spec takes no quoted text)."""
+def with_construction(start: Start, data: dict[str, Any], construction: str) -> dict[str, Any]:
+    """Spec data with a beam's or panel's section made a sandwich, or made solid again.
+
+    A sandwich finds both thicknesses (free = faces-and-core) and keeps only a beam's width;
+    going back to solid restores the section the explorer was started with when that
+    one is solid, else takes the solid the sandwich is compared with (a rectangle, depth
+    or thickness free).
+    """
+    from selector.pipeline.sandwich import SANDWICH_FREE
+
+    data = copy.deepcopy(data)
+    section = data.get("section", {})
+    function = data.get("part", {}).get("function")
+    width = {"b": section["b"]} if "b" in section and function == "beam" else {}
+    if construction == SANDWICH_SHAPE:
+        if section.get("shape") != SANDWICH_SHAPE:
+            data["section"] = {"shape": SANDWICH_SHAPE, "free": SANDWICH_FREE, **width}
+        return data
+    if section.get("shape") != SANDWICH_SHAPE:
+        return data
+    data.pop("sandwich", None)
+    first = start.data.get("section", {})
+    if first.get("shape") != SANDWICH_SHAPE and start.spec.part.function == function:
+        data["section"] = copy.deepcopy(first)
+    else:
+        free = "thickness" if function == "panel" else "depth"
+        data["section"] = {"shape": "rectangle", "free": free, **width}
+    return data
+
+
+def _number(text: str, source: str, index: int, name: str) -> float:
+    """A number typed in a constraint's control (the spec takes no quoted text)."""
     try:
-        return float(text.strip())
+        value = float(text.strip())
     except ValueError:
-        where = f"{source}: constraint[{index}].safety_factor"
+        value = math.nan
+    if not math.isfinite(value):
+        where = f"{source}: constraint[{index}].{name}"
         what = f"{text.strip()!r} is not a number"
-        raise InputError(
-            where, what, "a positive number such as 1.5", ("constraint", index, "safety_factor")
-        ) from None
+        raise InputError(where, what, "a plain number such as 1.5", ("constraint", index, name))
+    return value
 
 
 def _run(start: Start, c: Controls, for_report: bool = False) -> Any:
@@ -286,14 +502,32 @@ def _run(start: Start, c: Controls, for_report: bool = False) -> Any:
     return select(spec, start.table, robust=DEFAULT_REPORT_DRAWS, tradeoff=second)
 
 
-def _route(where: str) -> str:
-    """The message key for an error's location (``"spec.toml: constraint[1].safety_factor"``)."""
+_CONSTRAINT_AT = re.compile(r"^constraint\[(\d+)\]\.?(\w*)")
+
+
+def _route(where: str, data: Mapping[str, Any] | None = None) -> str:
+    """The message key for an error's location (``"spec.toml: constraint[1].safety_factor"``).
+
+    ``data`` is the spec data that was run, to find the type of a numbered constraint.
+    """
     place = where.rsplit(": ", 1)[-1]
     for row in SCREEN_ROWS:
         if place == f"screen.{row.symbol}":
             return row.key
+    for rating in RATINGS:
+        if place == f"screen.{rating}":
+            return rating_key(rating)
     if "max_deflection" in place or "max_twist" in place:
         return "stiffness_limit"
+    match = _CONSTRAINT_AT.match(place)
+    if match:
+        items = (data or {}).get("constraint") or []
+        at, name = int(match.group(1)), match.group(2)
+        kind = items[at].get("type") if at < len(items) and isinstance(items[at], dict) else None
+        key = f"constraint-{kind}-{name}"
+        if key in MESSAGE_KEYS:
+            return key
+        return "safety_factor" if name == "safety_factor" and kind in (None, "strength") else "constraints"
     if "safety_factor" in place:
         return "safety_factor"
     if place.startswith("constraint"):
@@ -302,8 +536,17 @@ def _route(where: str) -> str:
         return "objective"
     if place.startswith("section.free"):
         return "free"
+    head = place.split("[", 1)[0].replace(".", "-")
+    if head in MESSAGE_KEYS:
+        return head
     if place in ("index", "expression") or place.startswith(("index", "expression")):
         return "index"
+    if place.startswith("sandwich.faces"):
+        return "faces"
+    if place.startswith("sandwich.cores"):
+        return "cores"
+    if place.startswith("screen.exclude") and not place.startswith("screen.exclude_families"):
+        return "exclude"
     if place.startswith("screen"):
         return "families"
     if place == "units":
@@ -313,6 +556,16 @@ def _route(where: str) -> str:
 
 def _where(exc: SelectorError) -> str:
     return str(getattr(exc, "where", ""))
+
+
+def error_messages(exc: SelectorError, data: Mapping[str, Any] | None = None) -> dict[str, str]:
+    """Each problem of an error beside the control it concerns (a spec's problems one by one)."""
+    problems = getattr(exc, "errors", None) or (exc,)
+    messages: dict[str, str] = {}
+    for problem in problems:
+        key = _route(_where(problem), data)
+        messages[key] = "\n".join(m for m in (messages.get(key), str(problem)) if m)
+    return messages
 
 
 def sync_screen(
