@@ -29,6 +29,7 @@ from selector.outputs.explore.state import (
     Start,
     View,
     _run,
+    constraint_order,
     error_messages,
     initial_controls,
     spec_data,
@@ -62,10 +63,12 @@ def refresh(start: Start, c: Controls) -> View:
             data = spec_data(start, c)
             selection = _run_data(start, data)
         except SelectorError as exc:
-            messages |= error_messages(exc, data)
+            order = {"constraint": [{"type": t} for t in constraint_order(start, c)]}
+            messages |= error_messages(exc, data or order)
     if selection is None:
         said = messages["general"]
-        messages["general"] = f"Not updated: {said}" if said else "Not updated: correct the input marked in red."
+        said = said or "correct the input marked in red."
+        messages["general"] = f"Not updated: {said}"
         panel = class_view(start, None, c.chosen, c.units) if c.chosen else None
         return View(None, None, None, None, panel, messages)
 

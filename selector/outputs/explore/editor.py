@@ -350,15 +350,14 @@ def _screen_row(start: Start, row: ScreenRow, op: str, text: str) -> Any:
     ]
     if row.slider:
         scale = slider_scale(start.table, row.symbol)
-        parts.append(
-            dcc.Slider(
-                id=f"slider-{row.symbol}",
-                value=_slider_value(row.symbol, op, text, scale),
-                updatemode="mouseup",
-                allow_direct_input=False,
-                **scale,
-            )
+        slider = dcc.Slider(
+            id=f"slider-{row.symbol}",
+            value=_slider_value(row.symbol, op, text, scale),
+            updatemode="mouseup",
+            allow_direct_input=False,
+            **scale,
         )
+        parts.append(html.Div(slider, className="slider"))
     return html.Div(parts, className="field screen")
 
 

@@ -223,7 +223,7 @@ def load_start(spec_path: str | Path | None = None) -> Start:
     files = [str(path.parent / f) for f in spec.materials.files]
     table = load_materials(files, builtin=spec.materials.builtin)
     text = path.read_text(encoding="utf-8")
-    data = spec.model_dump(exclude_none=True)
+    data = spec.model_dump(exclude_none=True, exclude_unset=True)
     return Start(spec, data, path.name, text, table, str(path.parent.resolve()))
 
 
@@ -249,8 +249,10 @@ def start_with(start: Start, data: Any, name: str, text: str = "") -> Start:
             "names materials other than those the explorer has loaded",
             f"the materials of {start.name}, or start `selector explore` with this spec to use its own",
         )
-    spec = spec.model_copy(update={"materials": spec.materials.model_copy(update={"files": files})})
-    return Start(spec, spec.model_dump(exclude_none=True), name, text, start.table, start.folder)
+    if files:
+        spec = spec.model_copy(update={"materials": spec.materials.model_copy(update={"files": files})})
+    data = spec.model_dump(exclude_none=True, exclude_unset=True)
+    return Start(spec, data, name, text, start.table, start.folder)
 
 
 def _split_limit(text: str) -> tuple[str | None, str]:
@@ -362,14 +364,19 @@ def _set(table: dict[str, Any], key: str, text: str, value: Any = None) -> None:
         table.pop(key, None)
 
 
+def constraint_order(start: Start, c: Controls) -> list[str]:
+    """The ticked constraint types in the order the spec gets them: the loaded spec's first."""
+    base = [item["type"] for item in start.data.get("constraint", [])]
+    chosen = [t for t in base if t in c.constraints]
+    return chosen + [t for t in dict.fromkeys(c.constraints) if t not in chosen]
+
+
 def _constraint_items(start: Start, c: Controls, fields: dict[str, str]) -> list[dict[str, Any]]:
     """The spec's constraints as the controls set them: the ticked types with their fields."""
     base = {item["type"]: item for item in start.data.get("constraint", [])}
-    chosen = [t for t in base if t in c.constraints]
-    chosen += [t for t in c.constraints if t not in base and t not in chosen]
     stiffness_field = _stiffness_field(start)
     items = []
-    for kind in chosen:
+    for kind in constraint_order(start, c):
         item = dict(base.get(kind, {"type": kind}))
         at = len(items)
         if kind == "stiffness":
