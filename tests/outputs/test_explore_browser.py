@@ -7,9 +7,13 @@ Plotly sends arrays base64-encoded, so drawn elements are counted in the DOM.
 
 from __future__ import annotations
 
+import os
+import re
+import tempfile
 import threading
 import urllib.request
 from collections.abc import Iterator
+from pathlib import Path
 from typing import Any
 from urllib.parse import urlsplit
 
@@ -25,6 +29,8 @@ pytestmark = pytest.mark.browser
 
 WAIT_MS = BROWSER_WAIT_MS
 """Longest wait for the page to answer a change (a bound, not a pause)."""
+SHOTS = Path(os.environ.get("SELECTOR_SCREENSHOTS", tempfile.gettempdir()))
+"""Where the window-size tests leave their screenshots for a person to look at."""
 
 
 def _wait_until_up(url: str, limit_s: float = BROWSER_WAIT_MS / 1000) -> None:
@@ -219,3 +225,208 @@ def test_the_shortlist_downloads_as_csv(page):
     assert "mass [kg]" in got.columns
     with open(path, encoding="utf-8") as handle:
         assert handle.read().rstrip("\n") == render_selection(selection, "csv", "si")
+
+
+# ---------------------------------------------------------------------- the whole spec, files and the address
+
+
+OVERFLOW_JS = """() => {
+  const bad = [];
+  const root = document.documentElement;
+  if (root.scrollWidth > root.clientWidth + 1) bad.push(`page: ${root.scrollWidth} > ${root.clientWidth}`);
+  const name = (el) => el.id || (typeof el.className === "string" && el.className) || el.tagName;
+  const panels = "nav, nav section, main section, .chartbar, .classbox, .field, .scroll, .constraint, "
+    + "details";
+  for (const el of document.querySelectorAll(panels)) {
+    if (el.offsetParent === null) continue;
+    if (el.scrollWidth > el.clientWidth + 1) bad.push(`${name(el)}: ${el.scrollWidth} > ${el.clientWidth}`);
+  }
+  const controls = "input, button, table, .dash-dropdown, label, .js-plotly-plot";
+  for (const el of document.querySelectorAll(controls)) {
+    if (el.offsetParent === null) continue;
+    const box = el.closest("section, .chartbar, .classbox, header, .chartrow");
+    const r = el.getBoundingClientRect();
+    if (!box || r.width === 0) continue;
+    const b = box.getBoundingClientRect();
+    if (r.left < b.left - 1 || r.right > b.right + 1) bad.push(`${name(el)} sticks out of ${name(box)}`);
+    if (r.left < 0 || r.right > root.clientWidth + 1) bad.push(`${name(el)} is outside the window`);
+  }
+  return bad;
+}"""
+"""Every panel and control that shows, as (what, why) where it overflows its container or the window."""
+
+
+def _fresh(browser: Any, url: str, width: int = 1440, height: int = 1000):
+    """A new page on ``url`` (requests to the server only), once the shortlist and chart are drawn."""
+    from contextlib import contextmanager
+
+    @contextmanager
+    def opened():
+        with chromium_page(browser, width=width, height=height) as log:
+            pg = log.page
+
+            def loopback(route: Any) -> None:
+                if urlsplit(route.request.url).hostname == "127.0.0.1":
+                    route.continue_()
+                else:
+                    route.fallback()
+
+            pg.route("**/*", loopback)
+            pg.goto(url)
+            pg.wait_for_selector("#shortlist-table tbody tr")
+            pg.wait_for_selector("#chart .scatterlayer path.point")
+            yield pg
+            assert log.page_errors == [] and log.console_errors == [] and log.outside_requests == []
+
+    return opened()
+
+
+def _shown_ids(page: Any) -> list[str]:
+    rows = page.locator("#shortlist-table tbody tr")
+    return [rows.nth(i).get_attribute("data-id") for i in range(rows.count())]
+
+
+def test_a_new_constraint_with_its_fields_and_a_new_load_rank_as_the_library_does(browser, server):
+    from playwright.sync_api import expect
+
+    from selector.inputs.spec import spec_from_dict
+    from selector.pipeline.selection import select
+
+    start = load_start()
+    data = spec_data(start, initial_controls(start))
+    data["part"]["force"] = "240 N"
+    data["constraint"].append({"type": "frequency", "min_frequency": "40 Hz"})
+    expected = list(select(spec_from_dict(data), start.table).shortlist["id"])
+    with _fresh(browser, server) as pg:
+        expect(pg.locator("#con-frequency")).to_be_hidden()
+        pg.locator("#constraints input[value=frequency]").check()
+        expect(pg.locator("#con-frequency")).to_be_visible()
+        _type(pg, "#constraint-frequency-min_frequency", "40 Hz")
+        _type(pg, "#part-force", "240 N")
+        expect(pg.locator("#shortlist-table tbody tr")).to_have_count(len(expected))
+        expect(pg.locator("#shortlist-table tbody tr").first).to_have_attribute("data-id", expected[0])
+        assert _shown_ids(pg) == expected
+        expect(pg.locator("#derivation")).to_contain_text("frequency constraint")
+
+
+def test_the_edited_spec_downloads_and_loads_back_by_upload(browser, server, tmp_path):
+    from playwright.sync_api import expect
+
+    from selector.inputs.spec import spec_from_dict
+    from selector.outputs.explore.spec_files import spec_text
+    from selector.pipeline.selection import select
+
+    start = load_start()
+    controls = initial_controls(start).with_field("part.force", "200 N").with_screen("K_IC", "18 MPa*m^0.5")
+    expected = list(select(spec_from_dict(spec_data(start, controls)), start.table).shortlist["id"])
+    with _fresh(browser, server) as pg:
+        _type(pg, "#part-force", "200 N")
+        _type(pg, "#screen-K_IC", "18 MPa*m^0.5")
+        expect(pg.locator("#shortlist-table tbody tr")).to_have_count(len(expected))
+        assert _shown_ids(pg) == expected
+        with pg.expect_download() as info:
+            pg.click("#get-spec")
+        saved = tmp_path / info.value.suggested_filename
+        info.value.save_as(saved)
+    text = saved.read_text(encoding="utf-8")
+    assert text == spec_text(spec_data(start, controls), start.spec.title)
+    with _fresh(browser, server) as pg:
+        assert _shown_ids(pg) == list(_library().shortlist["id"]) != expected  # the spec as started
+        pg.set_input_files("#upload input[type=file]", str(saved))
+        expect(pg.locator("#part-force")).to_have_value("200 N")
+        expect(pg.locator("#screen-K_IC")).to_have_value("18 MPa*m^0.5")
+        expect(pg.locator("#shortlist-table tbody tr")).to_have_count(len(expected))
+        assert _shown_ids(pg) == expected
+        expect(pg.locator("#msg-upload")).to_be_empty()
+
+
+def test_a_bad_upload_gets_its_message_and_the_page_keeps_working(browser, server, tmp_path):
+    from playwright.sync_api import expect
+
+    bad = tmp_path / "broken.toml"
+    bad.write_text("[part]\nfunction = 'beem'\n", encoding="utf-8")
+    with _fresh(browser, server) as pg:
+        before = _shown_ids(pg)
+        pg.set_input_files("#upload input[type=file]", str(bad))
+        expect(pg.locator("#msg-upload")).to_contain_text("part.function")
+        assert _shown_ids(pg) == before
+
+
+def test_a_page_address_brings_back_the_view(browser, server):
+    from playwright.sync_api import expect
+
+    from selector.outputs.explore import address
+
+    start = load_start()
+    data = spec_data(start, initial_controls(start))
+    data["screen"]["T_max"] = ">= 200 degC"
+    fragment = address.encode(data, {"y": "sigma_y", "class": "cfrp-ud", "line": "class"})
+    expected = _library(T_max=">= 200 degC")
+    with _fresh(browser, server + fragment) as pg:
+        expect(pg.locator("#screen-T_max")).to_have_value("200 degC")
+        expect(pg.locator("#shortlist-table tbody tr")).to_have_count(len(expected.shortlist))
+        assert _shown_ids(pg) == list(expected.shortlist["id"])
+        expect(pg.locator("#chart .ytitle")).to_contain_text("Yield strength")
+        expect(pg.locator("#class-name")).to_have_text(
+            str(start.table.set_index("id").loc["cfrp-ud", "name"])
+        )
+        # A change on the page is written into the address, which brings it back again.
+        _type(pg, "#screen-T_max", "150 degC")
+        expect(pg).to_have_url(re.compile(r"#spec="))
+        pg.wait_for_function("(old) => window.location.hash !== old", arg=fragment)
+        shared = pg.url
+        hotter = _library(T_max=">= 150 degC")
+        expect(pg.locator("#shortlist-table tbody tr")).to_have_count(len(hotter.shortlist))
+        shown = _shown_ids(pg)
+    with _fresh(browser, shared) as pg:
+        expect(pg.locator("#screen-T_max")).to_have_value("150 degC")
+        expect(pg.locator("#shortlist-table tbody tr")).to_have_count(len(shown))
+        assert _shown_ids(pg) == shown
+
+
+def test_a_panel_switches_between_solid_and_sandwich(browser, server, tmp_path):
+    from playwright.sync_api import expect
+
+    from selector.inputs.spec import EXAMPLES
+
+    lid = tmp_path / "lid.toml"
+    lid.write_text((EXAMPLES / "enclosure-lid.toml").read_text(encoding="utf-8"), encoding="utf-8")
+    with _fresh(browser, server) as pg:
+        pg.set_input_files("#upload input[type=file]", str(lid))
+        expect(pg.locator("#title")).to_have_text("Outdoor enclosure lid")
+        expect(pg.locator("#row-construction")).to_be_visible()
+        pg.locator("#construction input[value=sandwich]").check()
+        expect(pg.locator("#pairs-table tbody tr").first).to_be_visible()
+        expect(pg.locator("#best-solid")).to_contain_text("best solid part")
+        expect(pg.locator("#sandwich-block")).to_be_visible()
+        pg.locator("#construction input[value=solid]").check()
+        expect(pg.locator("#pairs-table")).to_have_count(0)
+        expect(pg.locator("#sandwich-block")).to_be_hidden()
+
+
+@pytest.mark.parametrize(("width", "height"), [(1280, 800), (1920, 1080)])
+@pytest.mark.parametrize("spec", ["camera-dolly-boom", "walkway-hatch"])
+def test_nothing_is_clipped_at_common_window_sizes(browser, width, height, spec, tmp_path):
+    """Every panel and control fits its container and the window, with every fold opened."""
+    from selector.inputs.spec import EXAMPLES
+
+    app = make_app(EXAMPLES / f"{spec}.toml")
+    srv = bind(app, 0)
+    thread = threading.Thread(target=srv.serve_forever, daemon=True)
+    thread.start()
+    try:
+        url = f"http://127.0.0.1:{srv.port}/"
+        _wait_until_up(url)
+        with _fresh(browser, url, width, height) as pg:
+            pg.screenshot(path=str(SHOTS / f"explorer-{spec}-{width}x{height}.png"))
+            assert pg.evaluate(OVERFLOW_JS) == []
+            pg.evaluate("document.querySelectorAll('details').forEach(d => { d.open = true; })")
+            pg.wait_for_function("() => [...document.querySelectorAll('details')].every(d => d.open)")
+            assert pg.evaluate(OVERFLOW_JS) == []
+            caution = pg.locator("header .caution-banner")
+            assert "certified design-allowable data" in caution.inner_text()
+            assert "licensed engineering review" in caution.inner_text()
+    finally:
+        srv.shutdown()
+        srv.server_close()
+        thread.join(timeout=10)

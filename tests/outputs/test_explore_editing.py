@@ -48,7 +48,8 @@ def _expected(path, change=None):
     return select(spec_from_dict(data), load_materials())
 
 
-def _rows(view) -> list[str]:
+def _tagged(view, attribute: str) -> list[str]:
+    """The ``attribute`` of every table row in the shortlist area that has it, in order."""
     from dash import html
     from dash.development.base_component import Component
 
@@ -59,31 +60,20 @@ def _rows(view) -> list[str]:
             for item in node:
                 walk(item)
         elif isinstance(node, Component):
-            if isinstance(node, html.Tr) and hasattr(node, "data-id"):
-                found.append(getattr(node, "data-id"))
+            if isinstance(node, html.Tr) and hasattr(node, attribute):
+                found.append(getattr(node, attribute))
             walk(getattr(node, "children", None))
 
     walk(view.shortlist)
     return found
+
+
+def _rows(view) -> list[str]:
+    return _tagged(view, "data-id")
 
 
 def _pairs(view) -> list[str]:
-    from dash import html
-    from dash.development.base_component import Component
-
-    found: list[str] = []
-
-    def walk(node: Any) -> None:
-        if isinstance(node, list | tuple):
-            for item in node:
-                walk(item)
-        elif isinstance(node, Component):
-            if isinstance(node, html.Tr) and hasattr(node, "data-pair"):
-                found.append(getattr(node, "data-pair"))
-            walk(getattr(node, "children", None))
-
-    walk(view.shortlist)
-    return found
+    return _tagged(view, "data-pair")
 
 
 def _upload(text: str) -> str:

@@ -137,13 +137,13 @@ def spec_field(f: SpecField, text: str, form: FormState) -> Any:
     return field_box(f.label, _spec_control(f, text, form), f.key, hint, id=f"row-{f.key}", style=style)
 
 
-def _class_options(start: Start) -> list[dict[str, str]]:
+def class_options(start: Start) -> list[dict[str, str]]:
     classes = start.table.sort_values("name")
     return [{"label": n, "value": i} for i, n in zip(classes["id"], classes["name"], strict=True)]
 
 
 def _family_and_class_options(start: Start) -> list[dict[str, str]]:
-    return [{"label": f"family: {f}", "value": f} for f in FAMILIES] + _class_options(start)
+    return [{"label": f"family: {f}", "value": f} for f in FAMILIES] + class_options(start)
 
 
 def part_section(start: Start, c: Controls, form: FormState) -> Any:
@@ -403,7 +403,7 @@ def screens_section(start: Start, c: Controls, form: FormState) -> Any:
                 "Classes left out",
                 dcc.Dropdown(
                     id="exclude",
-                    options=_class_options(start),
+                    options=class_options(start),
                     value=list(c.exclude),
                     multi=True,
                     placeholder="none",

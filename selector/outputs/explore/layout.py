@@ -11,7 +11,7 @@ from dash import dcc, html
 
 from selector.inputs.properties import PROPERTIES
 from selector.inputs.units import format_number
-from selector.outputs.explore.editor import editor, field_box, message
+from selector.outputs.explore.editor import class_options, editor, field_box, message
 from selector.outputs.explore.state import Controls, Start
 from selector.pipeline.selection import CAUTION
 from selector.pipeline import columns
@@ -265,10 +265,9 @@ def layout(start: Start, c: Controls) -> Any:
         ],
         className="chartbar",
     )
-    classes = start.table.sort_values("name")
     class_picker = dcc.Dropdown(
         id="class",
-        options=[{"label": n, "value": i} for i, n in zip(classes["id"], classes["name"], strict=True)],
+        options=class_options(start),
         value=c.chosen,
         placeholder="choose a class",
     )
