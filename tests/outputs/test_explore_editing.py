@@ -321,3 +321,14 @@ def test_a_damaged_address_gets_a_message(dolly, fragment):
 def test_an_address_without_a_view_changes_nothing(dolly):
     assert reload(dolly, dolly, initial_controls(dolly), "address", fragment="")[2] == ""
     assert address.decode("#top") is None
+
+
+def test_a_bound_on_the_part_rejects_as_the_library_does(dolly):
+    def slim(data):
+        data["section"]["max_diameter"] = "40 mm"
+
+    c = initial_controls(dolly).with_field("section.max_diameter", "40 mm")
+    view = refresh(dolly, c)
+    expected = _expected(DOLLY, slim)
+    assert _rows(view) == list(expected.shortlist["id"])
+    assert len(expected.shortlist) < len(_expected(DOLLY).shortlist)  # some tubes need a larger d

@@ -175,6 +175,17 @@ def _slug(text: str) -> str:
     return re.sub(r"[^a-z0-9]+", "-", text.lower()).strip("-") or "selection"
 
 
+def _spec_download(start: Start, c: Controls) -> dict[str, Any]:
+    """The edited spec as a TOML file (checked as a spec first)."""
+    from selector.inputs.spec import spec_from_dict
+    from selector.outputs.explore.spec_files import spec_text
+
+    data = spec_data(start, c)
+    spec = spec_from_dict(data, source=start.name)
+    text = spec_text(data, spec.title)
+    return dcc.send_string(text, f"{_slug(spec.title)}.toml", type="application/toml")
+
+
 def download(start: Start, c: Controls, kind: str) -> tuple[dict[str, Any] | None, str]:
     """The file for a download button ("spec", "csv", "xlsx" or "report") and a message.
 
@@ -185,13 +196,7 @@ def download(start: Start, c: Controls, kind: str) -> tuple[dict[str, Any] | Non
     """
     try:
         if kind == "spec":
-            from selector.inputs.spec import spec_from_dict
-            from selector.outputs.explore.spec_files import spec_text
-
-            data = spec_data(start, c)
-            spec = spec_from_dict(data, source=start.name)
-            text = spec_text(data, spec.title)
-            return dcc.send_string(text, f"{_slug(spec.title)}.toml", type="application/toml"), ""
+            return _spec_download(start, c), ""
         selection = _run(start, c, for_report=kind == "report")
         name = _slug(selection.spec.title)
         if kind == "csv":

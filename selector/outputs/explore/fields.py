@@ -85,6 +85,9 @@ SECTION_FIELDS: tuple[SpecField, ...] = (
     SpecField("section.tf", "tf (flange)"),
     SpecField("section.tw", "tw (web)"),
     SpecField("section.min_wall", "Thinnest wall allowed", hint="empty: the product form's own"),
+    SpecField("section.max_depth", "Deepest part allowed", hint="empty: no limit"),
+    SpecField("section.max_width", "Widest part allowed", hint="empty: no limit"),
+    SpecField("section.max_diameter", "Largest diameter allowed", hint="empty: no limit"),
 )
 SANDWICH_FIELDS: tuple[SpecField, ...] = (
     SpecField("sandwich.max_depth", "Deepest sandwich allowed", hint="empty: no limit"),
@@ -164,8 +167,13 @@ def shown_fields(function: str, shape: str, given: set[str]) -> set[str]:
     elif function in SECTION_FUNCTIONS:
         shown |= {"section.shape", "section.min_wall"}
         shown |= {f"section.{d}" for d in SHAPE_DIMS.get(shape, ())}
+        round_shape = shape in ("round", "tube")
+        shown |= {"section.max_diameter"} if round_shape else {"section.max_depth", "section.max_width"}
     else:
         shown |= {"section.t", "section.min_wall"}
+        shown.add("section.max_diameter" if function in ("cylinder", "sphere") else "section.max_depth")
+        if function == "spring":
+            shown.discard("section.max_depth")
     if function in SANDWICH_FUNCTIONS and not sandwich:
         shown.add("section.shape")
     shown |= {f.path for f in CONSTRAINT_FIELDS}  # each shows inside its constraint's block

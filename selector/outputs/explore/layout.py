@@ -13,8 +13,8 @@ from selector.inputs.properties import PROPERTIES
 from selector.inputs.units import format_number
 from selector.outputs.explore.editor import class_options, editor, field_box, message
 from selector.outputs.explore.state import Controls, Start
-from selector.pipeline.selection import CAUTION
 from selector.pipeline import columns
+from selector.pipeline.selection import CAUTION
 
 _FORMULA = re.compile(
     r"\^\((?P<group>[^()]{1,40})\)|\^(?P<number>-?[0-9]+(?:\.[0-9]+)?)|(?<=[A-Za-zα-ωΑ-Ω])_(?P<sub>[A-Za-z0-9]{1,6})"
@@ -124,7 +124,8 @@ def sandwich_view(selection: Any, units: str) -> Any:
         cells += [_number(r[col]) for col in (*lengths, *values)]
         cells.append(r["governing"])
         cells.append(", ".join(f"{mode} {_number(u, 2)}" for mode, u in r["utilisation"].items()))
-        rows.append(html.Tr([html.Td(cell) for cell in cells], **{"data-pair": f"{r['face']}/{r['core']}"}))
+        tagged: dict[str, Any] = {"data-pair": f"{r['face']}/{r['core']}"}
+        rows.append(html.Tr([html.Td(cell) for cell in cells], **tagged))
     feasible = len(selection.sandwich.feasible)
     return [
         html.H3(f"Sandwich pairs ({feasible} feasible; the best {min(feasible, SANDWICH_ROWS)} shown)"),

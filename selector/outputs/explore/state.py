@@ -44,8 +44,15 @@ class ScreenRow:
         return f"screen_{self.symbol}"
 
 
-_SLIDER_ROWS = (("T_max", ">="), ("T_min", "<="), ("price", "<="), ("rho", "<="), ("E", ">="))
-_SLIDER_ROWS += (("sigma_y", ">="), ("K_IC", ">="))
+_SLIDER_ROWS: tuple[tuple[str, str], ...] = (
+    ("T_max", ">="),
+    ("T_min", "<="),
+    ("price", "<="),
+    ("rho", "<="),
+    ("E", ">="),
+    ("sigma_y", ">="),
+    ("K_IC", ">="),
+)
 _LOWER_IS_BETTER = {"rho", "price", "co2", "energy", "alpha", "T_min"}
 SCREEN_ROWS: tuple[ScreenRow, ...] = (
     *(ScreenRow(symbol, op, slider=True) for symbol, op in _SLIDER_ROWS),
@@ -332,7 +339,8 @@ def initial_controls(start: Start) -> Controls:
         else:
             screens.append((row.op, ""))
     ratings = tuple(
-        (r, _split_limit(v)[1] if _is_rating_minimum(v := spec.screen.get(r)) else "") for r in RATINGS
+        (r, _split_limit(str(spec.screen[r]))[1] if _is_rating_minimum(spec.screen.get(r)) else "")
+        for r in RATINGS
     )
     left_out = set(spec.screen.get("exclude_families") or ())
     families = tuple(f for f in (spec.screen.get("families") or FAMILIES) if f not in left_out)
@@ -375,7 +383,7 @@ def _constraint_items(start: Start, c: Controls, fields: dict[str, str]) -> list
     """The spec's constraints as the controls set them: the ticked types with their fields."""
     base = {item["type"]: item for item in start.data.get("constraint", [])}
     stiffness_field = _stiffness_field(start)
-    items = []
+    items: list[dict[str, Any]] = []
     for kind in constraint_order(start, c):
         item = dict(base.get(kind, {"type": kind}))
         at = len(items)
