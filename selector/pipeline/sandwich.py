@@ -25,7 +25,9 @@ from selector.inputs.spec import Spec
 from selector.mechanics import sandwich as sw
 from selector.mechanics.objectives import OBJECTIVE_FACTORS, OBJECTIVE_UNITS
 from selector.mechanics.product_forms import CLASS_MIN_WALL
+from selector.mechanics.stress_states import UNIAXIAL, one_axis_reason
 from selector.numeric import bisect_log
+from selector.pipeline.applicability import one_axis_mask
 from selector.suggest import did_you_mean
 
 DEFAULT_FACE_FAMILIES = ("metal", "composite")
@@ -40,6 +42,11 @@ MIN_FACE: dict[str, float] = {
     "natural": 1.0e-3,
 }
 MIN_FACE_OTHER = 1.0e-3
+MIN_FACE_CLASS: dict[str, float] = {
+    # a metal-matrix composite is rolled like metal sheet, not laid up in plies
+    # (common practice, no source)
+    "al-sic-mmc": 0.5e-3,
+}
 NOT_SHEET = frozenset({"spring-steel-wire"})
 """Classes made only as round wire: no face is cut from them (common practice, no source)."""
 MIN_CORE = 5e-3
@@ -317,6 +324,7 @@ def size_pairs(
     loads: SandwichLoads,
     faces_chosen: Sequence[str] | None = None,
     cores_chosen: Sequence[str] | None = None,
+    face_state: str = UNIAXIAL,
 ) -> SandwichResult:
     """Size and rank every face × core pair among the classes of ``screened`` not rejected.
 
@@ -325,6 +333,8 @@ def size_pairs(
         loads: loads, limits and bounds in SI.
         faces_chosen, cores_chosen: families or class ids (defaults: metals and composites on
             foams and natural materials).
+        face_state: the stress state of the faces (``mechanics.stress_states``); for a biaxial
+            one, classes whose data hold along one axis only are left out as faces.
     With ``loads.conservative`` stiffness and strength are taken at the low ends of the
     ranges and density, price and CO2 at the high ends; otherwise at geometric means.
     """
@@ -335,12 +345,21 @@ def size_pairs(
     fp = face_properties(face_rows, loads.objective, conservative)
     cp = core_properties(core_rows, loads.objective, conservative)
     sheet = ~face_rows["id"].isin(NOT_SHEET).to_numpy()
-    face_ok, core_ok = _usable(fp) & sheet, _usable(cp)
+    # a panel's faces carry biaxial stress, as a solid panel does: one-axis data do not cover it
+    biaxial = face_state != UNIAXIAL
+    any_axis = ~one_axis_mask(face_rows).to_numpy() if biaxial else np.ones(len(face_rows), dtype=bool)
+    face_ok, core_ok = _usable(fp) & sheet & any_axis, _usable(cp)
     excluded = pd.concat(
         [
             _excluded_rows(face_rows, sheet, "face", "made as round wire, not as sheet for a face"),
             _excluded_rows(
-                face_rows, _usable(fp) | ~sheet, "face", "missing stiffness, strength or cost data"
+                face_rows, any_axis | ~sheet, "face", one_axis_reason(face_state) if biaxial else ""
+            ),
+            _excluded_rows(
+                face_rows,
+                _usable(fp) | ~sheet | ~any_axis,
+                "face",
+                "missing stiffness, strength or cost data",
             ),
             _excluded_rows(
                 core_rows,
@@ -365,7 +384,7 @@ def size_pairs(
     pc = {k: v[ci] for k, v in cp.items()}
     by_family = face_rows["family"].map(lambda fam: MIN_FACE.get(fam, MIN_FACE_OTHER)).to_numpy(dtype=float)
     # a cast face is no thinner than its casting can be made (product_forms), whatever the spec says
-    by_class = face_rows["id"].map(CLASS_MIN_WALL).fillna(0.0).to_numpy(dtype=float)
+    by_class = face_rows["id"].map(CLASS_MIN_WALL | MIN_FACE_CLASS).fillna(0.0).to_numpy(dtype=float)
     face_min = np.maximum(by_family if loads.min_face is None else loads.min_face, by_class)[fi]
     core_min = np.full(len(fi), loads.min_core if loads.min_core is not None else MIN_CORE)
     case = loads.case

@@ -669,7 +669,11 @@ def _select_sandwich(spec: Spec, materials: pd.DataFrame, conservative: bool, in
     screened = qualifying_ranges(apply_screens(materials.reset_index(drop=True), screens), screens)
     options = spec.sandwich
     result = size_pairs(
-        screened, loads, options.faces if options else None, options.cores if options else None
+        screened,
+        loads,
+        options.faces if options else None,
+        options.cores if options else None,
+        stress_state(fn, spec.part.form),
     )
     result = replace(result, solid=best_solid(solid.shortlist, loads.max_depth))
     sized = int(result.pairs["feasible"].sum())

@@ -68,3 +68,30 @@ def test_energy_ranks_pairs_and_takes_part_in_a_tradeoff(by_energy):
     assert pairs["objective"].to_numpy() == pytest.approx(pairs["energy"].to_numpy(), rel=1e-12)
     study = studies(by_energy, tradeoff="mass").tradeoff
     assert {"energy", "mass"} <= set(study.front.columns) and len(study.front) >= 1
+
+
+def test_a_panel_leaves_out_one_axis_faces_as_a_solid_panel_does():
+    panel = _panel(faces=["composite"])
+    result = select(spec_from_dict(panel))
+    excluded = result.sandwich.excluded.set_index("id")
+    # CFRP UD's data hold along the fibres only; a panel's faces are in biaxial stress
+    assert excluded.loc["cfrp-ud", "role"] == "face" and "one axis" in excluded.loc["cfrp-ud", "reason"]
+    assert "cfrp-ud" not in set(result.sandwich.pairs["face"])
+    solid = result.table.set_index("id")
+    assert solid.loc["cfrp-ud", "status"] == "rejected"  # the same rule for the solid panel
+    assert result.sandwich.feasible["face"].iloc[0] == "cfrp-qi"
+
+
+def test_a_beam_keeps_one_axis_faces_along_its_span():
+    beam = _panel(faces=["composite"])
+    beam["part"] = {**beam["part"], "function": "beam"}
+    beam["part"].pop("width")
+    beam["section"] = {**beam["section"], "b": "100 mm"}
+    pairs = select(spec_from_dict(beam)).sandwich.pairs
+    assert "cfrp-ud" in set(pairs["face"])
+
+
+def test_a_metal_matrix_face_is_rolled_sheet_not_plies():
+    pairs = select(spec_from_dict(_panel(faces=["composite"]))).sandwich.feasible
+    mmc = pairs[pairs["face"] == "al-sic-mmc"]
+    assert len(mmc) and mmc["t_face"].min() >= 0.5e-3 * (1 - 1e-9)  # common practice, no source
