@@ -204,27 +204,10 @@ def test_interrupted_replace_leaves_the_old_file(selection, tmp_path, monkeypatc
     assert _leftovers(tmp_path, path.name) == []
 
 
-def test_write_interrupted_mid_way_leaves_the_old_file(tmp_path, monkeypatch):
+def test_write_interrupted_mid_way_leaves_the_old_file(tmp_path, break_writes):
     path = tmp_path / "shortlist.csv"
     path.write_bytes(b"old,csv\n")
-    real_fdopen = os.fdopen
-
-    class HalfWriter:
-        def __init__(self, handle):
-            self.handle = handle
-
-        def __enter__(self):
-            return self
-
-        def __exit__(self, *exc):
-            self.handle.close()
-            return False
-
-        def write(self, data):
-            self.handle.write(data[: len(data) // 2])
-            raise KeyboardInterrupt
-
-    monkeypatch.setattr(os, "fdopen", lambda fd, mode: HalfWriter(real_fdopen(fd, mode)))
+    break_writes(KeyboardInterrupt())  # half of the data written, then the user interrupts
     with pytest.raises(KeyboardInterrupt):
         export.write_text_atomic(path, "rank,id\n1,new\n" * 100)
     assert path.read_bytes() == b"old,csv\n"

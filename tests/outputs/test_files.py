@@ -91,29 +91,13 @@ def test_symlink_to_a_read_only_file_is_refused(tmp_path) -> None:
     assert real.read_text() == "precious\n"
 
 
-def test_full_disk_gives_a_clean_error_and_keeps_the_previous_file(tmp_path, monkeypatch) -> None:
+def test_full_disk_gives_a_clean_error_and_keeps_the_previous_file(
+    tmp_path, monkeypatch, break_writes
+) -> None:
     target = tmp_path / "report.html"
     target.write_text("the previous report\n")
-    real_fdopen = os.fdopen
-
-    class FullDisk:
-        """A file whose disk fills after the first few bytes."""
-
-        def __init__(self, handle):
-            self.handle = handle
-
-        def __enter__(self):
-            return self
-
-        def __exit__(self, *exc):
-            self.handle.close()
-            return False
-
-        def write(self, data):
-            self.handle.write(data[:4])
-            raise OSError(errno.ENOSPC, os.strerror(errno.ENOSPC))
-
-    monkeypatch.setattr(files.os, "fdopen", lambda fd, mode: FullDisk(real_fdopen(fd, mode)))
+    # the disk fills after the first few bytes
+    break_writes(OSError(errno.ENOSPC, os.strerror(errno.ENOSPC)), keep=lambda data: 4)
     with pytest.raises(OutputError, match=r"No space left on device.*previous file is unchanged"):
         files.write_bytes_atomic(target, b"a much longer new report\n")
     monkeypatch.undo()
