@@ -9,6 +9,7 @@ product form of each family, no source, unless a source is named:
 * composites: a laminate of four plies of about 0.125 mm, 0.5 mm;
 * polymers and elastomers: injection mouldings and extrusions, 1 mm;
 * metals: hot-rolled structural sections and plate, 3 mm;
+* aluminium/silicon carbide composite: cast or rolled plate, 1 mm;
 * natural: timber sections, plywood and MDF, 3 mm; particle board 6 mm; paper and board 0.3 mm;
 * foams: 10 mm blocks and cores;
 * ceramics 1 mm and glasses 2 mm (pressed or drawn plate);
@@ -38,12 +39,24 @@ CLASS_MIN_WALL: dict[str, float] = {
     "al-cast": 2.5e-3,
     "mg-cast": 2.0e-3,
     "zinc-die-cast": 1.0e-3,
+    "al-sic-mmc": 1.0e-3,
     "structural-steel": 3.0e-3,
     "particle-board": 6.0e-3,
     "paper-board": 0.3e-3,
     "concrete-aerated": 50e-3,
 }
 """Class id → minimum wall [m] where its product form differs from its family's."""
+
+
+CORE_ONLY_CLASSES = frozenset({"al-honeycomb", "aramid-honeycomb"})
+"""Classes made only as sandwich cores: never sized as a solid part (common practice, no source)."""
+CORE_ONLY_REASON = "made only as a sandwich core (a honeycomb), not as a solid part"
+
+LAMINATE_CLASSES = frozenset({"cfrp-qi", "gfrp-qi", "afrp-qi", "smc", "nfrp"})
+"""Laminates and moulding compounds: made as plate, shell and tube from plies or sheet, not as a
+solid round bar (common practice, no source; pultruded rods are unidirectional)."""
+LAMINATE_REASON = "a laminate is made as plate, shell or tube, not as a solid round bar"
+SOLID_BAR_SHAPES = ("round",)
 
 
 def minimum_walls(table: pd.DataFrame) -> pd.Series:

@@ -1,8 +1,9 @@
-"""Reject classes whose data do not hold for the part's stress state.
+"""Reject classes whose data or product form do not fit the part.
 
 A class whose data hold along one axis only (``directions = "axial"``:
 unidirectional composites, woods along or across the grain) is not ranked for a
-biaxial or shear stress state; the reason says why.
+biaxial or shear stress state. A class made only as a sandwich core is not sized as
+a solid part, and a laminate not as a solid round bar. Each reason says why.
 """
 
 from __future__ import annotations
@@ -10,6 +11,13 @@ from __future__ import annotations
 import pandas as pd
 
 from selector.errors import InputError
+from selector.mechanics.product_forms import (
+    CORE_ONLY_CLASSES,
+    CORE_ONLY_REASON,
+    LAMINATE_CLASSES,
+    LAMINATE_REASON,
+    SOLID_BAR_SHAPES,
+)
 from selector.mechanics.stress_states import DIRECTIONS, UNIAXIAL, one_axis_reason
 from selector.pipeline.screen import REJECTED
 
@@ -34,11 +42,27 @@ def reject_for_stress_state(table: pd.DataFrame, state: str) -> pd.DataFrame:
     """A copy of ``table`` with one-axis classes rejected when ``state`` is biaxial or shear."""
     if state == UNIAXIAL:
         return table
-    hit = one_axis_mask(table) & (table["status"] != REJECTED)
+    return _reject(table, one_axis_mask(table), one_axis_reason(state))
+
+
+SECTION_FUNCTIONS = ("tie", "beam", "column", "shaft")
+
+
+def reject_for_product_form(table: pd.DataFrame, function: str, shape: str) -> pd.DataFrame:
+    """A copy of ``table`` without the classes that are not made in this part's form:
+    sandwich-core-only classes for any solid part, laminates for a solid round bar."""
+    out = _reject(table, table["id"].isin(CORE_ONLY_CLASSES), CORE_ONLY_REASON)
+    if function in SECTION_FUNCTIONS and shape in SOLID_BAR_SHAPES:
+        out = _reject(out, out["id"].isin(LAMINATE_CLASSES), LAMINATE_REASON)
+    return out
+
+
+def _reject(table: pd.DataFrame, mask: pd.Series, reason: str) -> pd.DataFrame:
+    """A copy with the classes of ``mask`` not yet rejected rejected for ``reason``."""
+    hit = mask & (table["status"] != REJECTED)
     if not hit.any():
         return table
     out = table.copy()
     out.loc[hit, "status"] = REJECTED
-    reason = one_axis_reason(state)
     out["reasons"] = [[*r, reason] if h else r for r, h in zip(out["reasons"], hit, strict=True)]
     return out

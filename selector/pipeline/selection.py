@@ -18,7 +18,7 @@ from selector.mechanics.loadcases import part_kind, with_requirement
 from selector.mechanics.objectives import OBJECTIVE_UNITS
 from selector.mechanics.stress_states import stress_state
 from selector.pipeline import failure_limits as fl
-from selector.pipeline.applicability import reject_for_stress_state
+from selector.pipeline.applicability import reject_for_product_form, reject_for_stress_state
 from selector.pipeline.assumptions import assumptions_for
 from selector.pipeline.bounds import BOUND_FIELDS, check_bounds, reject_out_of_bounds
 from selector.pipeline.columns import INDEX, INDEX_LOW, INDEX_WITH_SHAPE, constraint_index
@@ -500,6 +500,7 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
         screened = reject_brittle(screened)
     screened = qualifying_ranges(screened, screens)
     screened = reject_for_stress_state(screened, stress_state(case.function, spec.part.form))
+    screened = reject_for_product_form(screened, case.function, spec.section.shape)
     if load_ratio != -1.0:
         screened = fl.with_fatigue_strength(screened, load_ratio)
     if derivations:

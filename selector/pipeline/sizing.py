@@ -369,6 +369,16 @@ def _one_part(
                     f"no valid section of this shape has the {floor * 1e3:.3g} mm minimum wall"
                 ],
             }
+    thinnest = min((dims[k] for k in WALL_DIMENSIONS if k in dims), default=math.inf)
+    if design.free == "scale" and case.kind.own_dimension is None and thinnest < floor:
+        # At fixed proportions the whole section grows until its thinnest wall can be made.
+        grow = floor / thinnest
+        warnings.append(
+            f"scaled ×{grow:.3g} so its thinnest wall meets the {floor * 1e3:.3g} mm minimum of its "
+            f"product form (needs {thinnest * 1e3:.2g} mm): over-designed"
+        )
+        dims = {k: v * grow for k, v in dims.items()}
+        geometry = _geometry_values(design, dims, case) or geometry
     values = dict(design.values) | geometry | props
     util: dict[str, float] = {}
     for d in derivations:

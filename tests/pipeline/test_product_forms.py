@@ -72,3 +72,71 @@ def test_a_minimum_wall_no_section_can_have_rejects_the_class_with_the_reason():
     row = result.table.set_index("id").loc["steelish"]
     assert row["status"] == "rejected"
     assert any("20 mm minimum wall" in w for w in row["size_warnings"])
+
+
+def _solid(function: str, shape: str):
+    load = {"torque": "50 N*m"} if function == "shaft" else {"force": "5 kN"}
+    part = {"function": function, "length": "1 m", **load}
+    return spec_from_dict({"part": part, "section": {"shape": shape}, "constraint": [{"type": "strength"}]})
+
+
+def test_a_honeycomb_is_never_sized_as_a_solid_part():
+    # honeycombs are made only as sandwich cores (common practice, no source)
+    table = make_table([STEELISH, {**STEELISH, "id": "al-honeycomb", "family": "foam"}])
+    rows = select(_solid("tie", "round"), table).table.set_index("id")
+    assert rows.at["al-honeycomb", "status"] == "rejected"
+    assert any("sandwich core" in r for r in rows.at["al-honeycomb", "reasons"])
+    assert rows.at["steelish", "status"] == "passes"
+
+
+@pytest.mark.parametrize(("shape", "rejected"), [("round", True), ("tube", False)])
+def test_a_laminate_is_not_made_as_a_solid_round_bar(shape, rejected):
+    # laminates are laid up as plate, shell and tube (common practice, no source)
+    table = make_table([STEELISH, {**STEELISH, "id": "cfrp-qi", "family": "composite"}])
+    rows = select(_solid("shaft", shape), table).table.set_index("id")
+    assert (rows.at["cfrp-qi", "status"] == "rejected") is rejected
+    if rejected:
+        assert any("not as a solid round bar" in r for r in rows.at["cfrp-qi", "reasons"])
+
+
+def test_a_panel_sandwich_leaves_out_one_axis_faces():
+    # a panel's faces carry stress both ways; unidirectional data hold along the fibres only
+    ud = {**STEELISH, "id": "ud-face", "family": "composite", "directions": "axial"}
+    flat = {**STEELISH, "id": "flat-face"}
+    core = {
+        "id": "foamish",
+        "family": "foam",
+        "rho": (100, 100),
+        "E": (0.1, 0.1),
+        "G": (0.04, 0.04),
+        "tau_core": (1.0, 1.0),
+    }
+    spec = spec_from_dict(
+        {
+            "part": {"function": "panel", "length": "0.9 m", "width": "0.6 m", "force": "1.5 kN"},
+            "section": {"shape": "sandwich", "free": "faces-and-core"},
+            "constraint": [{"type": "stiffness", "max_deflection": "3 mm"}, {"type": "strength"}],
+        }
+    )
+    result = select(spec, make_table([ud, flat, core])).sandwich
+    assert set(result.pairs["face"]) == {"flat-face"}
+    left_out = result.excluded.set_index("id")
+    assert "one axis" in left_out.at["ud-face", "reason"]
+
+
+def test_a_scaled_section_grows_until_its_thinnest_wall_can_be_made():
+    # Tie of F = 100 N on σ_y = 250 MPa: A = 4e-7 m²; a tube at d/t = 10 has A = 0.2827·d²,
+    # so d = 1.19 mm and t = 0.119 mm, below the 0.5 mm of drawn metal tube (common practice,
+    # no source): scaled ×4.2 to t = 0.5 mm, d = 5 mm, utilisation 4e-7/(0.2827·0.005²) = 0.0566.
+    spec = spec_from_dict(
+        {
+            "part": {"function": "tie", "length": "1 m", "force": "100 N"},
+            "section": {"shape": "tube", "d": "10 mm", "t": "1 mm"},
+            "constraint": [{"type": "strength"}],
+        }
+    )
+    row = select(spec, make_table([STEELISH])).shortlist.iloc[0]
+    assert row["dimensions"]["t"] == pytest.approx(0.5e-3)
+    assert row["dimensions"]["d"] == pytest.approx(5e-3)
+    assert row["utilisation"]["strength"] == pytest.approx(4e-7 / (0.2827433 * 0.005**2), rel=1e-4)
+    assert any("thinnest wall" in w and "over-designed" in w for w in row["size_warnings"])
