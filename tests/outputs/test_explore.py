@@ -421,3 +421,15 @@ def test_layout_serialises_to_json():
     app = make_app()
     text = json.dumps(app.layout.to_plotly_json(), cls=plotly.utils.PlotlyJSONEncoder)
     assert '"id": "chart"' in text
+
+
+def test_no_page_property_is_written_by_two_callbacks_unless_marked():
+    """Dash lets only one callback write a property unless the others say allow_duplicate."""
+    client = make_app().server.test_client()
+    writers: dict[str, list[bool]] = {}
+    for dep in client.get("/_dash-dependencies").get_json():
+        for out in dep["output"].strip(".").split("..."):
+            writers.setdefault(out.split("@")[0], []).append("@" in out)
+    shared = {prop: marks for prop, marks in writers.items() if len(marks) > 1}
+    assert "msg-upload.children" not in shared
+    assert all(marks.count(False) == 1 for marks in shared.values()), shared

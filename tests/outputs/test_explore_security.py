@@ -157,6 +157,12 @@ def test_the_page_body_has_the_expected_shape(refresh_body) -> None:
         ("screen-T_max", ["60 degC"], "msg-screen_T_max"),
         ("x-axis", 3.5, "msg-x"),
         ("line-value", [1], None),
+        ("part-force", [1, 2], "msg-part-force"),
+        ("section-d", {"d": 1}, "msg-section-d"),
+        ("rating-uv", 3, "msg-rating_uv"),
+        ("screen-K_IC", True, "msg-screen_K_IC"),
+        ("base", "not a spec", "msg-general"),
+        ("base", {"name": "x", "spec": {"part": 5}}, "msg-general"),
     ],
 )
 def test_malformed_control_values_get_the_controls_message(client, refresh_body, control, value, message_key):
@@ -223,3 +229,46 @@ def test_fifty_simultaneous_sessions_agree(served, refresh_body) -> None:
         answers = {results[i][1] for i in range(k, 50, len(bodies))}
         assert len(answers) == 1, f"variant {k} got {len(answers)} different shortlists"
     assert len({results[k][1] for k in range(len(bodies))}) == len(bodies)  # the variants differ
+
+
+@pytest.fixture(scope="module")
+def reload_body(app, client):
+    """A callback body for the upload / solid-sandwich / address callback, as the page sends it."""
+    deps = client.get("/_dash-dependencies").get_json()
+    loader = next(d for d in deps if "msg-upload.children" in d["output"])
+    values = _values(app.layout, {})
+    outputs = [
+        {"id": p.split(".")[0], "property": p.split(".")[1].split("@")[0]}
+        for p in loader["output"].strip(".").split("...")
+    ]
+
+    def item(i: dict[str, Any]) -> dict[str, Any]:
+        return {"id": i["id"], "property": i["property"], "value": values.get(i["id"])}
+
+    return {
+        "output": loader["output"],
+        "outputs": outputs,
+        "inputs": [item(i) for i in loader["inputs"]],
+        "state": [item(i) for i in loader["state"]],
+        "changedPropIds": [],
+    }
+
+
+@pytest.mark.parametrize(
+    ("control", "prop", "value", "said"),
+    [
+        ("upload", "contents", 5, "cannot be read"),
+        ("upload", "contents", "data:text/plain;base64,!!", "damaged"),
+        ("address", "hash", "#spec=%%%", "page address"),
+        ("address", "hash", ["#spec="], "page address"),
+    ],
+)
+def test_malformed_uploads_and_addresses_get_a_message(client, reload_body, control, prop, value, said):
+    body = json.loads(json.dumps(reload_body))
+    for entry in body["inputs"]:
+        if entry["id"] == control:
+            entry["value"] = value
+    body["changedPropIds"] = [f"{control}.{prop}"]
+    reply = client.post("/_dash-update-component", json=body)
+    assert reply.status_code == 200, reply.get_data(as_text=True)[:300]
+    assert said in _messages(reply)["msg-upload"]

@@ -58,6 +58,9 @@ CONTROLS: tuple[str, ...] = (
 """The id of every control whose ``value`` makes the view, in the order the callbacks take them."""
 CHOICE_OPTIONS = ("constraints", "free", *(f.key for f in FIELDS if f.kind == "choice"))
 """Controls whose options depend on the spec loaded."""
+RELOAD_MESSAGES = ("upload", "construction")
+"""Messages of the callback that loads a new spec; refresh writes every other one."""
+REFRESH_MESSAGES = tuple(key for key in MESSAGE_KEYS if key not in RELOAD_MESSAGES)
 ROWS = (*(f"row-{f.key}" for f in FIELDS), "row-construction", "sandwich-block", "row-kept")
 """Parts of the editor shown or hidden with the spec loaded."""
 
@@ -167,7 +170,7 @@ def wire(app: dash.Dash, start: Start) -> None:
         Output("x-axis", "placeholder"),
         Output("y-axis", "placeholder"),
         Output("address-state", "data"),
-        *(Output(f"msg-{key}", "children") for key in MESSAGE_KEYS),
+        *(Output(f"msg-{key}", "children") for key in REFRESH_MESSAGES),
     ]
 
     @app.callback(*outputs, *inputs, Input("base", "data"))
@@ -175,8 +178,8 @@ def wire(app: dash.Dash, start: Start) -> None:
         try:
             current = _current(start, values[-1])
         except SelectorError as exc:
-            messages = dict.fromkeys(MESSAGE_KEYS, "") | {"general": f"Not updated: {exc}"}
-            return (*(dash.no_update,) * 8, *(messages[key] for key in MESSAGE_KEYS))
+            messages = dict.fromkeys(REFRESH_MESSAGES, "") | {"general": f"Not updated: {exc}"}
+            return (*(dash.no_update,) * 8, *(messages[key] for key in REFRESH_MESSAGES))
         view = refresh(current, controls_from(values[:-1]))
         placeholders = (
             (f"as the index: {view.axes[0]}", f"as the index: {view.axes[1]}")
@@ -191,7 +194,7 @@ def wire(app: dash.Dash, start: Start) -> None:
             _keep(view.class_panel),
             *placeholders,
             _keep(view.address),
-            *(view.messages.get(key, "") for key in MESSAGE_KEYS),
+            *(view.messages.get(key, "") for key in REFRESH_MESSAGES),
         )
 
     _wire_reload(app, start, states)
