@@ -129,7 +129,7 @@ def _section_problems(
                     _listed(list(dims), f"{owner} takes no dimensions"),
                 )
             )
-    if fn == "beam" and free == "depth" and "b" in section and "width" in part:
+    if fn in ("beam", "panel") and (fn == "panel" or free == "depth") and "b" in section and "width" in part:
         out.append(
             _problem(
                 source,

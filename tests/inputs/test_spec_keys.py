@@ -136,6 +136,15 @@ def test_a_beam_reads_width_only_with_its_depth_free():
     ]
 
 
+def test_a_panel_width_given_twice_is_an_error():
+    assert _messages(_spec("panel", section={"b": "0.3 m"})) == [
+        "x.toml: part.width: the width is given twice, as part.width and section.b; one of them"
+    ]
+    without = _spec("panel", section={"b": "0.4 m"})
+    del without["part"]["width"]
+    assert spec_from_dict(without).section.b == "0.4 m"
+
+
 @pytest.mark.parametrize(
     ("function", "section", "key", "expected"),
     [
