@@ -166,8 +166,11 @@ class Spec(_Strict):
                 raise ValueError(f"unknown screen {key!r}; {did_you_mean(key, SCREEN_KEYS)}")
             if key in ("families", "exclude_families"):
                 if not isinstance(limit, list) or any(f not in FAMILIES for f in limit):
-                    bad = limit if not isinstance(limit, list) else [f for f in limit if f not in FAMILIES]
-                    raise ValueError(f"{key} = {bad!r}; expected a list of: {', '.join(FAMILIES)}")
+                    if not isinstance(limit, list):
+                        raise ValueError(f"{key} = {limit!r}; expected a list of: {', '.join(FAMILIES)}")
+                    bad = next(f for f in limit if f not in FAMILIES)
+                    hint = did_you_mean(str(bad), FAMILIES, keep_order=True)
+                    raise ValueError(f"{key}: {bad!r} is not a family; {hint}")
             elif key == "allow_brittle":
                 if not isinstance(limit, bool):
                     raise ValueError(f"allow_brittle = {limit!r}; expected true or false")

@@ -166,24 +166,71 @@ def _to(q: Any, unit: str, where: str, shown: str) -> float:
         return float(q.to(target).magnitude) / scale
     except pint.errors.DimensionalityError:
         raise UnitError(
-            where, f"{shown!r} is not a {describe(unit)}", f"a value in units like {unit}"
+            where, f"got {shown!r}, {dimension_phrase(q.units)}", f"expected {dimension_phrase(target)}"
         ) from None
 
 
-def describe(unit: str) -> str:
-    """A plain name for the dimension of ``unit`` (for messages)."""
-    dims = str(registry().get_dimensionality(_unit(unit, "unit")[1]))
-    names = {
-        "[length]": "length",
-        "[mass] / [length] / [time] ** 2": "pressure or stress",
-        "[length] * [mass] / [time] ** 2": "force",
-        "[mass] / [length] ** 3": "density",
-        "[temperature]": "temperature",
-        "[length] ** 2 * [mass] / [time] ** 2": "torque or energy",
-        "[currency] / [mass]": "price per mass",
-        "dimensionless": "pure number",
-    }
-    return names.get(dims, f"quantity of dimension {dims}")
+# Dimensions named in messages, with units a user would write for each: (pint
+# dimensionality as {base: power}, plain name, example units).
+_DIMENSIONS: tuple[tuple[dict[str, float], str, str], ...] = (
+    ({"[length]": 1}, "length", "mm, in, ft"),
+    ({"[length]": 2}, "area", "mm^2, in^2"),
+    ({"[length]": 3}, "volume", "m^3, in^3"),
+    ({"[mass]": 1}, "mass", "kg, lb"),
+    ({"[time]": 1}, "time", "s, min, h"),
+    ({"[time]": -1}, "frequency", "Hz, rpm"),
+    ({"[length]": 1, "[mass]": 1, "[time]": -2}, "force", "N, kN, lbf"),
+    ({"[mass]": 1, "[length]": -1, "[time]": -2}, "pressure or stress", "MPa, GPa, psi, ksi"),
+    ({"[mass]": 1, "[length]": 2, "[time]": -2}, "torque or energy", "N*m, lbf*ft, J"),
+    ({"[mass]": 1, "[length]": -0.5, "[time]": -2}, "fracture toughness", "MPa*m^0.5, ksi*in^0.5"),
+    ({"[mass]": 1, "[length]": -3}, "density", "kg/m^3, lb/in^3"),
+    ({"[temperature]": 1}, "temperature", "degC, degF, K"),
+    ({"[currency]": 1}, "cost", "USD"),
+    ({"[currency]": 1, "[mass]": -1}, "price per mass", "USD/kg, USD/lb"),
+    ({"[length]": 1, "[mass]": 1, "[time]": -3, "[temperature]": -1}, "thermal conductivity", "W/(m*K)"),
+    ({"[temperature]": -1}, "thermal expansion", "1e-6/K, 1/degF"),
+    ({}, "pure number", "1, %, deg"),
+)
+_BASE_SYMBOLS = {
+    "[length]": "m",
+    "[mass]": "kg",
+    "[time]": "s",
+    "[temperature]": "K",
+    "[currency]": "USD",
+    "[current]": "A",
+    "[substance]": "mol",
+    "[luminosity]": "cd",
+}
+
+
+def _powers(unit: Any) -> dict[str, float]:
+    """The dimension of a pint unit (or unit text) as {base: power}, in no particular order."""
+    units = _unit(unit, "unit")[1] if isinstance(unit, str) else unit
+    return {str(k): float(v) for k, v in registry().get_dimensionality(units).items() if v}
+
+
+def _in_base_units(powers: dict[str, float]) -> str:
+    """SI base units of a dimension, e.g. ``kg/(m·s^2)``."""
+
+    def part(base: str, power: float) -> str:
+        symbol = _BASE_SYMBOLS.get(base, base.strip("[]"))
+        return symbol if abs(power) == 1 else f"{symbol}^{abs(power):g}"
+
+    up = [part(b, p) for b, p in powers.items() if p > 0]
+    down = [part(b, p) for b, p in powers.items() if p < 0]
+    top = "·".join(up) or "1"
+    if not down:
+        return top
+    return f"{top}/" + (down[0] if len(down) == 1 else "(" + "·".join(down) + ")")
+
+
+def dimension_phrase(unit: Any) -> str:
+    """The dimension of ``unit`` in plain words with units that measure it: "a length (mm, in, ft …)"."""
+    powers = _powers(unit)
+    for dims, name, examples in _DIMENSIONS:
+        if dims == powers:
+            return f"a {name} ({examples} …)"
+    return f"a quantity in {_in_base_units(powers)}"
 
 
 def convert(values: np.ndarray | float, source: str, target: str, where: str = "value") -> np.ndarray:
@@ -200,7 +247,9 @@ def convert(values: np.ndarray | float, source: str, target: str, where: str = "
         out = ureg.Quantity(arr * scale_src, src).to(dst).magnitude
     except pint.errors.DimensionalityError:
         raise UnitError(
-            where, f"unit {source!r} does not measure {describe(target)}", f"a unit convertible to {target}"
+            where,
+            f"unit {source!r} measures {dimension_phrase(src)}",
+            f"expected {dimension_phrase(dst)}",
         ) from None
     return np.asarray(out, dtype=float) / scale_dst
 

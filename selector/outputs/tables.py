@@ -108,10 +108,12 @@ def class_frame(table: pd.DataFrame, class_id: str, units: str = "si") -> pd.Dat
     """One class as a property / low / high / unit table."""
     match = table[table["id"] == class_id]
     if match.empty:
-        from selector.suggest import did_you_mean
+        from selector.suggest import CLASS_FALLBACK, class_aliases, did_you_mean
 
         raise InputError(
-            "materials show", f"no class with id {class_id!r}", did_you_mean(class_id, table["id"])
+            "materials show",
+            f"no class with id {class_id!r}",
+            did_you_mean(class_id, table["id"], fallback=CLASS_FALLBACK, aliases=class_aliases(table)),
         )
     row = match.iloc[[0]]
     records = [

@@ -28,7 +28,7 @@ from selector.mechanics.product_forms import CLASS_MIN_WALL
 from selector.mechanics.stress_states import UNIAXIAL, one_axis_reason
 from selector.numeric import bisect_log
 from selector.pipeline.applicability import one_axis_mask
-from selector.suggest import did_you_mean
+from selector.suggest import CLASS_FALLBACK, class_aliases, did_you_mean
 
 DEFAULT_FACE_FAMILIES = ("metal", "composite")
 DEFAULT_CORE_FAMILIES = ("foam", "natural")
@@ -168,7 +168,9 @@ def _members(
             raise InputError(
                 f"{where}[{i}]",
                 f"{name!r} is neither a family nor a class id",
-                did_you_mean(name, [*FAMILIES, *sorted(ids)]),
+                did_you_mean(
+                    name, [*FAMILIES, *sorted(ids)], fallback=CLASS_FALLBACK, aliases=class_aliases(table)
+                ),
             )
     return table[table["family"].isin(names) | table["id"].isin(names)]
 

@@ -132,8 +132,26 @@ def _family_masks(table: pd.DataFrame, screens: Screens) -> list[tuple[np.ndarra
     return masks
 
 
+def check_excluded_ids(table: pd.DataFrame, screens: Screens, where: str = "screen.exclude") -> None:
+    """Raise InputError, with the nearest ids, for an excluded id that names no class of ``table``."""
+    from selector.suggest import CLASS_FALLBACK, class_aliases, did_you_mean
+
+    known = set(table["id"])
+    for i, class_id in enumerate(screens.exclude):
+        if class_id not in known:
+            raise InputError(
+                f"{where}[{i}]",
+                f"no class with id {class_id!r}",
+                did_you_mean(class_id, sorted(known), fallback=CLASS_FALLBACK, aliases=class_aliases(table)),
+            )
+
+
 def apply_screens(table: pd.DataFrame, screens: Screens) -> pd.DataFrame:
-    """A copy of ``table`` with ``status`` and ``reasons`` columns added."""
+    """A copy of ``table`` with ``status`` and ``reasons`` columns added.
+
+    Raises InputError when ``screens.exclude`` names a class the table does not hold.
+    """
+    check_excluded_ids(table, screens)
     n = len(table)
     rejected = np.zeros(n, dtype=bool)
     partly = np.zeros(n, dtype=bool)

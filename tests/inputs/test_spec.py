@@ -57,7 +57,7 @@ def test_examples_load(path):
         ),
         (
             {"part": {"function": "beam"}, "screen": {"families": ["metals"]}},
-            "x.toml: screen: families = ['metals']; expected a list of: metal,",
+            "x.toml: screen: families: 'metals' is not a family; did you mean 'metal'?",
         ),
         ({}, "x.toml: part: required field is missing"),
     ],

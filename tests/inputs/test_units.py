@@ -60,7 +60,7 @@ def test_scaled_units_convert():
 @pytest.mark.parametrize(
     ("text", "unit", "message"),
     [
-        ("2 kN", "m", "v: '2 kN' is not a length; a value in units like m"),
+        ("2 kN", "m", "v: got '2 kN', a force (N, kN, lbf …); expected a length (mm, in, ft …)"),
         ("2", "m", "v: '2' has no unit; a value with its unit"),
         ("2 furlongz", "m", "v: unknown unit 'furlongz'"),
         ("abc", "m", "v: cannot read 'abc'; a number followed by a unit"),
@@ -79,3 +79,31 @@ def test_any_text_gives_a_value_or_a_unit_error(text):
     except UnitError:
         return
     assert isinstance(value, float)
+
+
+@pytest.mark.parametrize(
+    ("text", "unit", "got", "expected"),
+    [
+        # the dimension words are ours; each pair is a mix-up a user could make (common practice, no source)
+        ("2 kN", "mm", "a force (N, kN, lbf …)", "a length (mm, in, ft …)"),
+        ("4 kg", "m", "a mass (kg, lb …)", "a length (mm, in, ft …)"),
+        ("60 ksi", "degC", "a pressure or stress (MPa, GPa, psi, ksi …)", "a temperature (degC, degF, K …)"),
+        ("3 N*m", "N", "a torque or energy (N*m, lbf*ft, J …)", "a force (N, kN, lbf …)"),
+        ("20 MPa*m^0.5", "MPa", "a fracture toughness (MPa*m^0.5, ksi*in^0.5 …)", "a pressure or stress"),
+        ("3 kg*m/s", "N", "a quantity in kg·m/s", "a force (N, kN, lbf …)"),
+    ],
+)
+def test_wrong_dimensions_are_named_in_plain_words(text, unit, got, expected):
+    with pytest.raises(UnitError) as err:
+        units.magnitude_in(text, unit, "v")
+    message = str(err.value)
+    assert message.startswith(f"v: got {text!r}, {got}; expected {expected}")
+    assert "[" not in message and "**" not in message  # no pint dimension strings
+
+
+def test_a_conversion_between_dimensions_names_both():
+    with pytest.raises(UnitError) as err:
+        units.convert(1.0, "lbf", "mm", "column d")
+    assert str(err.value) == (
+        "column d: unit 'lbf' measures a force (N, kN, lbf …); expected a length (mm, in, ft …)"
+    )

@@ -116,7 +116,13 @@ def test_limits_convert_units():
     [
         ("T_max", "60 degC", InputError, "screen.T_max: cannot read limit '60 degC'"),
         ("T_max", ">= 60", UnitError, "screen.T_max: '60' has no unit"),
-        ("T_max", ">= 60 MPa", UnitError, "screen.T_max: '60 MPa' is not a temperature"),
+        (
+            "T_max",
+            ">= 60 MPa",
+            UnitError,
+            "screen.T_max: got '60 MPa', a pressure or stress (MPa, GPa, psi, ksi …); "
+            "expected a temperature (degC, degF, K …)",
+        ),
         (
             "uv",
             ">= great",

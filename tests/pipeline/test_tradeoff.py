@@ -141,7 +141,8 @@ def test_penalty_reads_constants_with_units():
     # 4 USD/lb = 4 / 0.45359237 USD/kg = 8.8185 USD/kg.
     out = penalty(table, {"mass": "4 USD/lb"}).set_index("id")
     assert out.loc["A", "penalty"] == pytest.approx(10 + 2 * 4 / POUND)
-    with pytest.raises(UnitError, match=r"exchange\.mass: '4 USD' is not a price per mass"):
+    wrong = r"exchange\.mass: got '4 USD', a cost \(USD …\); expected a price per mass"
+    with pytest.raises(UnitError, match=wrong):
         penalty(table, {"mass": "4 USD"})
 
 
@@ -293,7 +294,8 @@ def test_tradeoff_report_errors():
     with pytest.raises(InputError, match=r"'cots' is not an objective; did you mean 'cost'\?"):
         tradeoff_report(sel, "cots")
     with pytest.raises(
-        UnitError, match=r"--exchange: '40 USD' is not a price per mass; a value in units like USD/kg"
+        UnitError,
+        match=r"--exchange: got '40 USD', a cost \(USD …\); expected a price per mass \(USD/kg, USD/lb …\)",
     ):
         tradeoff_report(sel, "cost", "40 USD")
     with pytest.raises(InputError, match="--exchange: '-3 USD/kg' is not a usable exchange constant"):

@@ -164,7 +164,12 @@ def _index_value(
         raise InputError(
             "index line: through",
             f"no drawn class with id {target!r}",
-            did_you_mean(target, where, fallback="the id of a class drawn on the chart"),
+            did_you_mean(
+                target,
+                where,
+                fallback="the id of a class drawn on the chart",
+                aliases={cid: [name] for cid, name in zip(classes.ids, classes.names, strict=True)},
+            ),
         )
     i = where[target]
     return float(line.value(classes.x_mid[i], classes.y_mid[i])), classes.names[i]
