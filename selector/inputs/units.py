@@ -206,7 +206,8 @@ _BASE_SYMBOLS = {
 def _powers(unit: Any) -> dict[str, float]:
     """The dimension of a pint unit (or unit text) as {base: power}, in no particular order."""
     units = _unit(unit, "unit")[1] if isinstance(unit, str) else unit
-    return {str(k): float(v) for k, v in registry().get_dimensionality(units).items() if v}
+    dims = registry().get_dimensionality(units)
+    return {str(k): float(v) for k, v in dims.items() if v}  # type: ignore[arg-type]
 
 
 def _in_base_units(powers: dict[str, float]) -> str:
