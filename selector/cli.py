@@ -24,6 +24,16 @@ format_option = click.option(
 units_option = click.option(
     "--units", type=click.Choice(("si", "us")), default=None, help="Units system for output."
 )
+wide_option = click.option(
+    "--wide", is_flag=True, help="Print every column in full, however wide (default: fit the terminal)."
+)
+
+
+def _width(wide: bool, output: str | None = None) -> int | None:
+    """Characters a printed table may use: the terminal's (COLUMNS if set), or None for a file or --wide."""
+    import shutil
+
+    return None if wide or output else shutil.get_terminal_size().columns
 
 
 class UserInputError(click.ClickException):
@@ -84,6 +94,7 @@ def materials() -> None:
 @click.option("--no-builtin", is_flag=True, help="Leave out the built-in table.")
 @format_option
 @units_option
+@wide_option
 def materials_list(
     family: tuple[str, ...],
     search: str | None,
@@ -91,17 +102,14 @@ def materials_list(
     no_builtin: bool,
     fmt: str | None,
     units: str | None,
+    wide: bool,
 ) -> None:
     """List the material classes."""
     from selector.inputs.materials import load_materials
     from selector.outputs import tables
 
     table = load_materials(files, builtin=not no_builtin)
-    frame = tables.materials_frame(table, family, search, units or "si")
-    if (fmt or "table") in ("table", "md"):
-        chosen = table[table["id"].isin(frame["id"])]
-        frame = tables.materials_summary(chosen, units or "si")
-    click.echo(tables.render(frame, fmt or "table"))
+    click.echo(tables.render_materials(table, fmt or "table", family, search, units or "si", _width(wide)))
 
 
 @materials.command("show")
@@ -109,13 +117,16 @@ def materials_list(
 @click.option("--materials", "files", multiple=True, type=click.Path(), help="Add a materials file.")
 @format_option
 @units_option
-def materials_show(class_id: str, files: tuple[str, ...], fmt: str | None, units: str | None) -> None:
+@wide_option
+def materials_show(
+    class_id: str, files: tuple[str, ...], fmt: str | None, units: str | None, wide: bool
+) -> None:
     """Show every property of one class."""
     from selector.inputs.materials import load_materials
     from selector.outputs import tables
 
     table = load_materials(files)
-    click.echo(tables.render(tables.class_frame(table, class_id, units or "si"), fmt or "table"))
+    click.echo(tables.render_class(table, class_id, fmt or "table", units or "si", _width(wide)))
 
 
 @materials.command("check")
@@ -161,6 +172,7 @@ def materials_check(file: str, fmt: str | None) -> None:
     help="Fatigue: R = min load / max load.",
 )
 @format_option
+@wide_option
 def derive(
     function: str,
     objective: str,
@@ -171,13 +183,14 @@ def derive(
     criterion: str | None,
     load_ratio: float,
     fmt: str | None,
+    wide: bool,
 ) -> None:
     """Derive the merit index for FUNCTION and show the steps."""
     from selector.outputs import tables
     from selector.pipeline.derive import derive as run
 
     result = run(function, constraint, objective, free, support, load, criterion, load_ratio)
-    click.echo(tables.render_derivation(result, fmt or "table"))
+    click.echo(tables.render_derivation(result, fmt or "table", _width(wide)))
 
 
 @cli.command()
@@ -210,6 +223,7 @@ def derive(
 )
 @format_option
 @units_option
+@wide_option
 @click.option(
     "-o", "--output", type=click.Path(), default=None, help="Write to FILE (format from extension)."
 )
@@ -228,6 +242,7 @@ def rank(
     distribution: str,
     fmt: str | None,
     units: str | None,
+    wide: bool,
     output: str | None,
 ) -> None:
     """Screen, derive, size and rank the classes for a SPEC file.
@@ -280,12 +295,12 @@ def rank(
             raise InputError(
                 "--format csv", "one CSV holds one table", "--tradeoff and --robust in separate runs"
             )
-        _emit(_studies(selection, fmt), output)
+        _emit(_studies(selection, fmt, _width(wide, output)), output)
         return
     if selection.sandwich is not None and fmt != "xlsx":
         from selector.outputs.sandwich_tables import render_sandwich
 
-        _emit(render_sandwich(selection, fmt, units, top), output)
+        _emit(render_sandwich(selection, fmt, units, top, _width(wide, output)), output)
         return
     if output and fmt == "xlsx":
         from selector.outputs.export import write_xlsx
@@ -293,15 +308,18 @@ def rank(
         write_xlsx(selection, Path(output), units, protect=[spec, *files])
         click.echo(f"wrote {output}", err=True)
         return
-    _emit(tables.render_selection(selection, fmt, units, top, show_all), output)
+    _emit(tables.render_selection(selection, fmt, units, top, show_all, _width(wide, output)), output)
 
 
-def _studies(selection: Selection, fmt: str) -> str:
+def _studies(selection: Selection, fmt: str, width: int | None = None) -> str:
     """Text of the trade-off and robustness studies the Selection carries (JSON: one object)."""
     import json
 
     from selector.outputs.studies import render_robustness, render_tradeoff
+    from selector.outputs.tables import short_names
+    from selector.outputs.terminal import wrap
 
+    short = short_names(selection.table)
     parts = []
     if selection.tradeoff_error is not None:
         raise selection.tradeoff_error
@@ -309,14 +327,22 @@ def _studies(selection: Selection, fmt: str) -> str:
         study = selection.tradeoff
         parts.append(
             render_tradeoff(
-                study.front, study.second, fmt if fmt != "xlsx" else "table", study.exchange, study.note
+                study.front,
+                study.second,
+                fmt if fmt != "xlsx" else "table",
+                study.exchange,
+                study.note,
+                width,
+                short,
             )
         )
     if selection.robust_error is not None:
         raise selection.robust_error
     if selection.robust is not None:
         parts.append(
-            render_robustness(selection.robust, fmt if fmt != "xlsx" else "table", selection.sensitivity)
+            render_robustness(
+                selection.robust, fmt if fmt != "xlsx" else "table", selection.sensitivity, width, short
+            )
         )
     if fmt == "json":
         asked = (("tradeoff", selection.tradeoff), ("robustness", selection.robust))
@@ -325,19 +351,20 @@ def _studies(selection: Selection, fmt: str) -> str:
         stated = {"assumptions": list(selection.assumptions)}
         return json.dumps(merged | stated | {"caution": selection.caution}, indent=2)
     if fmt in (None, "table", "md"):
-        parts.append(f"CAUTION: {selection.caution}")
+        parts.extend(wrap([f"CAUTION: {selection.caution}"], width))
     return "\n\n".join(parts)
 
 
 @cli.command()
 @click.option("--out", "out_dir", type=click.Path(), default="selector-demo", show_default=True)
-def demo(out_dir: str) -> None:
+@wide_option
+def demo(out_dir: str, wide: bool) -> None:
     """Run a bundled example end to end and write its files."""
     from selector.api import run_demo
     from selector.outputs import tables
 
     selection, written = run_demo(Path(out_dir))
-    click.echo(tables.render_selection(selection, "table", selection.spec.units, 10, False))
+    click.echo(tables.render_selection(selection, "table", selection.spec.units, 10, False, _width(wide)))
     for path in written:
         click.echo(f"wrote {path}")
 
@@ -347,14 +374,15 @@ def demo(out_dir: str) -> None:
 @click.argument("dims", nargs=-1)
 @format_option
 @units_option
-def section(shape: str, dims: tuple[str, ...], fmt: str | None, units: str | None) -> None:
+@wide_option
+def section(shape: str, dims: tuple[str, ...], fmt: str | None, units: str | None, wide: bool) -> None:
     """Properties of a cross-section: SHAPE DIM=VALUE ... (e.g. i-section b=100mm h=200mm tf=10mm tw=6mm)."""
     from selector.inputs.spec import parse_dimension_args
     from selector.mechanics.sections import build_section
     from selector.outputs import tables
 
     section = build_section(shape, parse_dimension_args(shape, dims))
-    click.echo(tables.render_section(section, fmt or "table", units or "si"))
+    click.echo(tables.render_section(section, fmt or "table", units or "si", _width(wide)))
 
 
 @cli.command()

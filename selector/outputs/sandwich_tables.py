@@ -12,7 +12,16 @@ import pandas as pd
 
 from selector.mechanics.sandwich import MODES
 from selector.outputs.cells import csv_text
-from selector.outputs.tables import _LENGTH_FACTOR, _MASS_FACTOR, LENGTH_UNIT, MASS_UNIT, _json_value, render
+from selector.outputs.tables import (
+    _LENGTH_FACTOR,
+    _MASS_FACTOR,
+    LENGTH_UNIT,
+    MASS_UNIT,
+    _json_value,
+    render,
+    short_names,
+)
+from selector.outputs.terminal import Layout, wrap
 
 
 def pairs_frame(selection: Any, units: str = "si", top: int | None = None) -> pd.DataFrame:
@@ -129,8 +138,13 @@ def flat_pairs(selection: Any, units: str = "si", top: int | None = None) -> pd.
     return flat
 
 
-def render_sandwich(selection: Any, fmt: str, units: str = "si", top: int | None = None) -> str:
-    """The ranked pairs in the chosen format; the table form adds the solid part, assumptions and caution."""
+def render_sandwich(
+    selection: Any, fmt: str, units: str = "si", top: int | None = None, width: int | None = None
+) -> str:
+    """The ranked pairs in the chosen format; the table form adds the solid part, assumptions and caution.
+
+    A terminal table fits ``width`` characters (every column in full when None).
+    """
     if fmt == "json":
         return _json(selection, units, top)
     if fmt == "csv":
@@ -155,4 +169,16 @@ def render_sandwich(selection: Any, fmt: str, units: str = "si", top: int | None
         "",
         f"CAUTION: {selection.caution}",
     ]
-    return "\n".join([*head, "", render(shown, "md" if fmt == "md" else "table"), "", *foot])
+    names = short_names(selection.table)
+    layout = Layout(
+        short={
+            "face_name": [names.get(str(i), str(i)) for i in frame["face"]],
+            "core_name": [names.get(str(i), str(i)) for i in frame["core"]],
+        },
+        notes=("warnings",),
+        spare=("utilisation", "deflection_shear", "deflection_bending", "co2"),
+        optional=("cost", "depth"),
+        elide=("face_name", "core_name"),
+    )
+    body = render(shown, "md" if fmt == "md" else "table", width, layout)
+    return "\n".join([*wrap(head, width), "", body, "", *wrap(foot, width)])

@@ -3,11 +3,13 @@
 from __future__ import annotations
 
 import json
+from collections.abc import Mapping
 
 import pandas as pd
 
 from selector.mechanics.objectives import OBJECTIVE_UNITS
 from selector.outputs.tables import render
+from selector.outputs.terminal import Layout, wrap
 from selector.pipeline.columns import is_index_column
 from selector.pipeline.robust import RobustResult
 from selector.pipeline.tradeoff import EXCHANGE_LABELS
@@ -26,18 +28,37 @@ def _display(frame: pd.DataFrame) -> pd.DataFrame:
     return out.rename(columns=_LABELS)
 
 
+def _layout(frame: pd.DataFrame, short: Mapping[str, str] | None, optional: tuple[str, ...]) -> Layout:
+    """Study tables narrow by notes, short names, then the named columns (id, family last)."""
+    shorts = {}
+    if short and "name" in frame:
+        shorts = {
+            "name": [short.get(str(i), str(n)) for i, n in zip(frame["id"], frame["name"], strict=True)]
+        }
+    return Layout(
+        short=shorts,
+        notes=("note",),
+        spare=tuple(c for c in frame.columns if str(c).endswith("_se")),
+        optional=(*optional, "family", "id"),
+        elide=("name",),
+    )
+
+
 def render_tradeoff(
     front: pd.DataFrame,
     second: pd.DataFrame,
     fmt: str = "table",
     exchange: float | str | None = None,
     note: str = "",
+    width: int | None = None,
+    short: Mapping[str, str] | None = None,
 ) -> str:
     """The two frames of ``tradeoff_report`` as text (table, md, csv or json).
 
     ``csv`` gives the second frame only (it carries the front members' values);
     ``json`` gives one object with both. ``note`` is what the study assumes (shown above
-    the tables, and as ``note`` in JSON).
+    the tables, and as ``note`` in JSON). A terminal table fits ``width`` characters, naming
+    classes by ``short`` (id → short name) when it must.
     """
     kind = "penalty" if "penalty" in second else "ranges"
     if fmt == "json":
@@ -54,7 +75,7 @@ def render_tradeoff(
         f"Pareto front ({' vs '.join(objectives)}; all minimised): {len(front)} members",
         *([f"note: {note}"] if note else []),
         "",
-        render(_display(front), body),
+        render(_display(front), body, width, _layout(front, short, ("rank",))),
         "",
     ]
     if kind == "penalty":
@@ -67,12 +88,17 @@ def render_tradeoff(
             "Exchange-constant range over which each front member is the best choice "
             "(Z = y + α·x; empty where never best)"
         )
-    lines += ["", render(_display(second), body)]
+    lines = wrap(lines, width)
+    lines += ["", render(_display(second), body, width, _layout(second, short, ("on_hull", "rank")))]
     return "\n".join(lines)
 
 
 def render_robustness(
-    result: RobustResult, fmt: str = "table", sensitivity: pd.DataFrame | None = None
+    result: RobustResult,
+    fmt: str = "table",
+    sensitivity: pd.DataFrame | None = None,
+    width: int | None = None,
+    short: Mapping[str, str] | None = None,
 ) -> str:
     """The odds (and optionally the sensitivity) as text: table, md, csv or json.
 
@@ -109,7 +135,9 @@ def render_robustness(
         f"seed {result.seed}; {better}",
         f"properties drawn: {', '.join(result.properties) or 'none'}",
         "",
-        render(shown, body) if not result.table.empty else "no ranked candidates",
+        render(shown, body, width, _layout(shown, short, _spare_odds(shown)))
+        if not result.table.empty
+        else "no ranked candidates",
         "",
         "p_best, p_top_k: odds of ranking first / in the top k; *_se: Monte Carlo standard error; "
         "rank_p05..p95: 5th, 50th and 95th percentile of the rank",
@@ -119,9 +147,15 @@ def render_robustness(
             "",
             f"Sensitivity of the leader ({sensitivity['leader'].iat[0]}) to each property's scatter:",
             "",
-            render(sensitivity, body),
+            render(sensitivity, body, width, Layout(elide=("property",))),
         ]
-    return "\n".join(lines)
+    return "\n".join(wrap(lines, width))
+
+
+def _spare_odds(shown: pd.DataFrame) -> tuple[str, ...]:
+    """Odds columns a narrow terminal may leave out: standard errors, then the outer percentiles."""
+    errors = tuple(c for c in shown.columns if c.endswith("_se"))
+    return (*errors, "rank_p05", "rank_p95", "rank")
 
 
 __all__ = ["render_robustness", "render_tradeoff"]

@@ -18,6 +18,7 @@ from selector.errors import InputError
 from selector.inputs.properties import PROPERTIES, RATINGS, property_of
 from selector.inputs.units import format_number
 from selector.outputs.cells import csv_text, markdown_text
+from selector.outputs.terminal import Layout, fit_table, wrap
 from selector.pipeline import columns
 
 SUMMARY_PROPERTIES = ("rho", "E", "sigma_y", "sigma_ts", "T_max", "price")
@@ -93,6 +94,28 @@ def materials_frame(
     return out.reset_index(drop=True)
 
 
+def render_materials(
+    table: pd.DataFrame,
+    fmt: str,
+    families: Sequence[str] = (),
+    search: str | None = None,
+    units: str = "si",
+    width: int | None = None,
+) -> str:
+    """The classes: every column for machines (CSV, JSON), a summary for people, fitted to ``width``."""
+    frame = materials_frame(table, families, search, units)
+    if fmt not in ("table", "md"):
+        return render(frame, fmt)
+    chosen = table[table["id"].isin(frame["id"])]
+    summary = materials_summary(chosen, units)
+    layout = Layout(
+        short={"name": _shorts(chosen["id"], short_names(chosen))},
+        optional=("sigma_ts", "T_max", "family", "price"),
+        elide=("name",),
+    )
+    return render(summary, fmt, width, layout)
+
+
 def materials_summary(table: pd.DataFrame, units: str = "si") -> pd.DataFrame:
     """A narrow view for people: id, name, family and the ranges of a few key properties."""
     out = table[["id", "name", "family"]].copy()
@@ -140,6 +163,23 @@ def class_frame(table: pd.DataFrame, class_id: str, units: str = "si") -> pd.Dat
     return pd.DataFrame(records)
 
 
+TEXT_ROWS = ("note", "source", "origin")
+"""Rows of a class's table that hold prose; a terminal shows them below the table, wrapped."""
+
+
+def render_class(
+    table: pd.DataFrame, class_id: str, fmt: str, units: str = "si", width: int | None = None
+) -> str:
+    """One class in the chosen format; on a terminal its notes and source follow the table, wrapped."""
+    frame = class_frame(table, class_id, units)
+    if fmt != "table":
+        return render(frame, fmt)
+    prose = frame["property"].isin(TEXT_ROWS) & (frame["low"].astype(str) != "")
+    text = [f"{row.property}: {row.low}" for row in frame[prose].itertuples()]
+    body = render(frame[~prose], fmt, width, Layout(elide=("low",)))
+    return "\n".join([body, *([""] if text else []), *wrap(text, width)])
+
+
 def _cell(value: Any) -> str:
     if isinstance(value, float | np.floating):
         return "n/a" if math.isnan(value) else format_number(float(value))
@@ -150,8 +190,12 @@ def _cell(value: Any) -> str:
     return str(value)
 
 
-def render(frame: pd.DataFrame, fmt: str) -> str:
-    """A frame as a terminal table, CSV, JSON or Markdown."""
+def render(frame: pd.DataFrame, fmt: str, width: int | None = None, layout: Layout | None = None) -> str:
+    """A frame as a terminal table, CSV, JSON or Markdown.
+
+    A terminal table is fitted to ``width`` characters by ``layout`` (see ``terminal``);
+    without a width every column is printed in full.
+    """
     if fmt == "csv":
         return csv_text(frame)
     if fmt == "json":
@@ -167,11 +211,17 @@ def render(frame: pd.DataFrame, fmt: str) -> str:
             "| " + " | ".join(markdown_text(c).replace("|", "\\|") for c in row) + " |" for row in cells
         ]
         return "\n".join(lines)
-    widths = [max(len(h), *(len(r[i]) for r in cells)) if cells else len(h) for i, h in enumerate(header)]
-    lines = ["  ".join(h.ljust(w) for h, w in zip(header, widths, strict=True)).rstrip()]
-    lines.append("  ".join("-" * w for w in widths))
-    lines += ["  ".join(c.ljust(w) for c, w in zip(row, widths, strict=True)).rstrip() for row in cells]
-    return "\n".join(lines)
+    return fit_table(header, cells, width, layout)
+
+
+def short_names(table: pd.DataFrame) -> dict[str, str]:
+    """Each class id's short name (its name where the table has no short names)."""
+    names = table["short_name"] if "short_name" in table else table["name"]
+    return dict(zip(table["id"].astype(str), names.astype(str), strict=True))
+
+
+def _shorts(ids: Any, names: dict[str, str]) -> list[str]:
+    return [names.get(str(i), str(i)) for i in ids]
 
 
 def _json_value(value: Any) -> Any:
@@ -199,8 +249,8 @@ def _json_records(frame: pd.DataFrame) -> list[dict[str, Any]]:
     return out
 
 
-def render_derivation(d: Any, fmt: str) -> str:
-    """The derived index and its steps."""
+def render_derivation(d: Any, fmt: str, width: int | None = None) -> str:
+    """The derived index and its steps; a terminal's lines are wrapped to ``width``."""
     if fmt == "json":
         return json.dumps(
             {
@@ -232,7 +282,7 @@ def render_derivation(d: Any, fmt: str) -> str:
     ]
     lines += [f"  {i}. {s}" for i, s in enumerate(d.steps, 1)]
     lines += ["", f"Merit index (maximise): M = {d.index_text}"]
-    return "\n".join(lines)
+    return "\n".join(wrap(lines, width, indent="     "))
 
 
 def index_unit(exponents: dict[str, float]) -> str:
@@ -374,9 +424,17 @@ def flat_frame(selection: Any, units: str = "si", show_all: bool = False) -> pd.
 
 
 def render_selection(
-    selection: Any, fmt: str, units: str = "si", top: int | None = None, show_all: bool = False
+    selection: Any,
+    fmt: str,
+    units: str = "si",
+    top: int | None = None,
+    show_all: bool = False,
+    width: int | None = None,
 ) -> str:
-    """The shortlist in the chosen format; the table form adds the derivation and the caution."""
+    """The shortlist in the chosen format; the table form adds the derivation and the caution.
+
+    A terminal table is fitted to ``width`` characters (every column in full when None).
+    """
     frame = selection_frame(selection, units, show_all)
     if top:
         frame = frame[(frame["rank"].isna()) | (frame["rank"] <= top)] if show_all else frame.head(top)
@@ -399,7 +457,7 @@ def render_selection(
             flat = flat[flat["rank"].isna() | (flat["rank"] <= top)] if show_all else flat.head(top)
         return csv_text(flat)
     shown = _compact(frame, units, column_headers(selection, units), selection.ranking_key)
-    body = render(shown, "md" if fmt == "md" else "table")
+    body = render(shown, "md" if fmt == "md" else "table", width, _rank_layout(selection, frame, shown))
     if selection.derivations:
         d = selection.derivations[0]
         head = [f"{selection.spec.title}: {d.case.title}; minimise {d.objective}"]
@@ -432,7 +490,21 @@ def render_selection(
     if fmt == "md":
         head = [markdown_text(line) for line in head]
         foot = [markdown_text(line) for line in foot]
-    return "\n".join([*head, "", body, "", *foot])
+    return "\n".join([*wrap(head, width), "", body, "", *wrap(foot, width)])
+
+
+def _rank_layout(selection: Any, frame: pd.DataFrame, shown: pd.DataFrame) -> Layout:
+    """How the rank table narrows: notes first, then short names, then the least needed columns."""
+    objective = selection.ranked_by if selection.sized else None
+    amounts = [c.split(" [")[0] for c in shown.columns if c.startswith(("mass [", "cost [", "co2 ["))]
+    others = tuple(a for a in ("co2", "cost", "mass") if a in amounts and a != objective)
+    return Layout(
+        short={"class": _shorts(frame["id"], short_names(selection.table))},
+        notes=("notes", "reasons"),
+        spare=("utilisation",),
+        optional=("status", *others, "family", "governing"),
+        elide=("class",),
+    )
 
 
 def _util_text(u: Any) -> str:
@@ -544,7 +616,7 @@ def section_values(section: Any, units: str = "si") -> dict[str, dict[str, Any]]
     return out
 
 
-def render_section(section: Any, fmt: str, units: str = "si") -> str:
+def render_section(section: Any, fmt: str, units: str = "si", width: int | None = None) -> str:
     """A section's properties in the chosen format."""
     values = section_values(section, units)
     if fmt == "json":
@@ -567,5 +639,5 @@ def render_section(section: Any, fmt: str, units: str = "si") -> str:
     frame = pd.DataFrame(rows)
     if fmt == "csv":
         return csv_text(frame)
-    text = render(frame, "md" if fmt == "md" else "table")
-    return f"{text}\n\nJ: {section.J_method}\nZt: {section.Zt_method}"
+    text = render(frame, "md" if fmt == "md" else "table", width, Layout(elide=("property",)))
+    return "\n".join([text, "", *wrap([f"J: {section.J_method}", f"Zt: {section.Zt_method}"], width)])
