@@ -13,7 +13,8 @@ CUTOFF = 0.6
 """Least similarity (difflib ratio, 0–1) for a name to be suggested."""
 
 PREFIX_SIMILARITY = 0.9
-"""Similarity given to a name that begins with what the user wrote (three letters or more)."""
+"""Least similarity of a name that begins with what the user wrote (three letters or more);
+the closer the whole name, the higher above it."""
 
 
 def _words(text: str) -> str:
@@ -26,7 +27,8 @@ def _similarity(word: str, known_as: Iterable[str]) -> float:
     best = 0.0
     for form in known_as:
         if len(word) >= 3 and str(form).lower().startswith(str(word).lower()):
-            best = max(best, PREFIX_SIMILARITY)
+            closeness = difflib.SequenceMatcher(None, str(word).lower(), str(form).lower()).ratio()
+            best = max(best, PREFIX_SIMILARITY + (1 - PREFIX_SIMILARITY) * closeness)
         pairs = ((str(word), str(form)), (str(word).lower(), str(form).lower()), (_words(word), _words(form)))
         for a, b in pairs:
             if a and b:
