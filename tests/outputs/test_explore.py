@@ -204,7 +204,7 @@ def test_a_screen_in_other_units_gives_the_same_shortlist(start, controls):
 
 def test_a_screen_with_a_unit_that_does_not_fit_shows_a_message(start, controls):
     view = refresh(start, controls.with_screen("T_max", "60 kg"))
-    assert "not a temperature" in view.messages["screen_T_max"]
+    assert "expected a temperature (degC, degF, K …)" in view.messages["screen_T_max"]
     assert "screen.T_max" in view.messages["screen_T_max"]
     assert view.shortlist is None and view.figure is None  # the last good result stays
     assert view.messages["general"]
