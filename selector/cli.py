@@ -351,7 +351,7 @@ def _studies(selection: Selection, fmt: str, width: int | None = None) -> str:
         stated = {"assumptions": list(selection.assumptions)}
         return json.dumps(merged | stated | {"caution": selection.caution}, indent=2)
     if fmt in (None, "table", "md"):
-        parts.extend(wrap([f"CAUTION: {selection.caution}"], width))
+        parts.append("\n".join(wrap([f"CAUTION: {selection.caution}"], width)))
     return "\n\n".join(parts)
 
 

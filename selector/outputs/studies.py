@@ -28,12 +28,22 @@ def _display(frame: pd.DataFrame) -> pd.DataFrame:
     return out.rename(columns=_LABELS)
 
 
+def _short_of(class_id: str, name: str, short: Mapping[str, str]) -> str:
+    """A class's short name; a face + core pair's is both short names joined by "+"."""
+    if class_id in short:
+        return short[class_id]
+    parts = class_id.split("+")
+    return " + ".join(short[p] for p in parts) if len(parts) > 1 and all(p in short for p in parts) else name
+
+
 def _layout(frame: pd.DataFrame, short: Mapping[str, str] | None, optional: tuple[str, ...]) -> Layout:
     """Study tables narrow by notes, short names, then the named columns (id, family last)."""
     shorts = {}
     if short and "name" in frame:
         shorts = {
-            "name": [short.get(str(i), str(n)) for i, n in zip(frame["id"], frame["name"], strict=True)]
+            "name": [
+                _short_of(str(i), str(n), short) for i, n in zip(frame["id"], frame["name"], strict=True)
+            ]
         }
     return Layout(
         short=shorts,

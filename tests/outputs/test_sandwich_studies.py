@@ -61,7 +61,7 @@ def test_exchange_constant_ranks_the_pairs_by_penalty(hatch):
 
 
 def test_cli_tradeoff_prints_pairs_and_what_it_assumes():
-    result = _rank("--tradeoff", "cost")
+    result = _rank("--tradeoff", "cost", "--wide")
     assert result.exit_code == 0, result.output
     assert "Pareto front (mass vs cost; all minimised)" in result.output
     assert "note: each pair keeps the thicknesses that minimise mass" in result.output

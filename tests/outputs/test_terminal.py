@@ -83,6 +83,7 @@ COMMANDS = [
     ("rank", BOOM, "--tradeoff", "cost"),
     ("rank", BOOM, "--tradeoff", "cost", "--exchange", "40 USD/kg"),
     ("rank", HATCH),
+    ("rank", HATCH, "--tradeoff", "cost"),
     ("rank", str(EXAMPLES / "gate-return-spring.toml"), "--all"),
     ("materials", "list"),
     ("materials", "show", "cfrp-ud"),
