@@ -47,7 +47,7 @@ def test_materials_show_with_nothing_near_says_where_the_ids_are():
 
 
 def test_an_excluded_id_that_names_no_class_is_refused(tmp_path):
-    spec = _edited(tmp_path, "camera-dolly-boom.toml", 'exclude = ["balsa"]', 'exclude = ["balsawood"]')
+    spec = _edited(tmp_path, "camera-dolly-boom.toml", 'exclude = ["balsa"', 'exclude = ["balsawood"')
     assert _error("rank", spec) == (
         "error: screen.exclude[0]: no class with id 'balsawood'; did you mean 'balsa', 'plywood'?\n"
     )

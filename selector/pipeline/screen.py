@@ -133,10 +133,16 @@ def _family_masks(table: pd.DataFrame, screens: Screens) -> list[tuple[np.ndarra
 
 
 def check_excluded_ids(table: pd.DataFrame, screens: Screens, where: str = "screen.exclude") -> None:
-    """Raise InputError, with the nearest ids, for an excluded id that names no class of ``table``."""
+    """Raise InputError, with the nearest ids, for an excluded id that names no class of ``table``
+    nor of the built-in table."""
     from selector.suggest import CLASS_FALLBACK, class_aliases, did_you_mean
 
     known = set(table["id"])
+    unknown = [c for c in screens.exclude if c not in known]
+    if unknown:  # a built-in id stays harmless when a user's table replaces the built-in one
+        from selector.inputs.materials import load_materials
+
+        known |= set(load_materials([])["id"])
     for i, class_id in enumerate(screens.exclude):
         if class_id not in known:
             raise InputError(
