@@ -19,6 +19,7 @@ from typing import Any
 
 from selector.errors import InputError, SelectorError
 from selector.mechanics.objectives import OBJECTIVE_UNITS
+from selector.outputs.formula import formula_html, headline_index_pieces, index_pieces, pieces_html
 from selector.pipeline import columns
 
 DEFAULT_REPORT_DRAWS = 2000
@@ -31,26 +32,9 @@ STATIC_CHART_WIDTH = 1000
 ROBUST_ROWS = 15
 """Rows of the robustness table (the most likely best first)."""
 
-_SUP_GROUP = re.compile(r"\^\(([^()]{1,40})\)")
-_SUP_NUMBER = re.compile(r"\^(-?[0-9]+(?:\.[0-9]+)?)")
-_SUB = re.compile(r"(?<=[A-Za-zα-ωΑ-Ω])_([A-Za-z0-9]{1,6})")
 _EMPHASIS = re.compile(r"\*([^*]+)\*")
 _SOURCE_ROW = re.compile(r"^\|\s*`([^`]+)`\s*\|\s*(.+?)\s*\|\s*$")
 _PRICE_YEAR = re.compile(r"price-(\d{4})")
-
-
-def formula_html(text: str) -> Any:
-    """Plain formula text as safe HTML: escaped, then ``x^(1/2)``, ``x^3`` raised and ``δ_max`` lowered.
-
-    The text is escaped first, so only our own ``<sup>`` and ``<sub>`` tags reach the page.
-    """
-    from markupsafe import Markup, escape
-
-    safe = str(escape(text))
-    safe = _SUP_GROUP.sub(r"<sup>\1</sup>", safe)
-    safe = _SUP_NUMBER.sub(r"<sup>\1</sup>", safe)
-    safe = _SUB.sub(r"<sub>\1</sub>", safe)
-    return Markup(safe)
 
 
 def _number(value: Any, digits: int = 3) -> str:
@@ -214,7 +198,7 @@ def _derivation_view(d: Any) -> dict[str, Any]:
         "free": d.geometry.free,
         "equation": formula_html(d.case.equations.get(d.constraint, "")),
         "steps": [formula_html(s) for s in d.steps],
-        "index": formula_html(d.index_text),
+        "index": pieces_html(index_pieces(d)),
     }
 
 
@@ -463,7 +447,8 @@ def _summary(selection: Any, units: str) -> list[tuple[str, Any]]:
         if c.type != "frequency":  # a frequency limit carries its margin in min_frequency
             limits.append(f"safety factor {_number(c.safety_factor)}")
         facts.append((f"{c.type} constraint", ", ".join(limits)))
-    facts.append(("merit index (maximise)", formula_html(f"M = {selection.index_text}")))
+    headline = pieces_html([("text", "M = "), *headline_index_pieces(selection)])
+    facts.append(("merit index (maximise)", headline))
     ranked = f"{selection.ranked_by} of the sized part" if selection.sized else "merit index"
     facts.append(("ranked by", ranked))
     facts.append(

@@ -3,7 +3,6 @@
 from __future__ import annotations
 
 import math
-import re
 from typing import Any
 
 import pandas as pd
@@ -13,29 +12,17 @@ from selector.inputs.properties import PROPERTIES
 from selector.inputs.units import format_number
 from selector.outputs.explore.editor import class_options, editor, field_box, message
 from selector.outputs.explore.state import Controls, Start
+from selector.outputs.formula import Piece, headline_index_pieces, index_pieces, text_pieces
 from selector.pipeline import columns
 from selector.pipeline.selection import CAUTION
 
-_FORMULA = re.compile(
-    r"\^\((?P<group>[^()]{1,40})\)|\^(?P<number>-?[0-9]+(?:\.[0-9]+)?)|(?<=[A-Za-zα-ωΑ-Ω])_(?P<sub>[A-Za-z0-9]{1,6})"
-)
 
-
-def formula(text: str) -> list[Any]:
-    """Formula text as page pieces: ``x^(1/2)`` and ``x^3`` raised, ``δ_max`` lowered."""
-    out: list[Any] = []
-    at = 0
-    for match in _FORMULA.finditer(text):
-        if match.start() > at:
-            out.append(text[at : match.start()])
-        if match.group("sub") is not None:
-            out.append(html.Sub(match.group("sub")))
-        else:
-            out.append(html.Sup(match.group("group") or match.group("number")))
-        at = match.end()
-    if at < len(text):
-        out.append(text[at:])
-    return out
+def formula(pieces: list[Piece] | str) -> list[Any]:
+    """Formula pieces (or plain formula text) as page elements: powers raised, subscripts lowered."""
+    if isinstance(pieces, str):
+        pieces = text_pieces(pieces)
+    tags = {"sup": html.Sup, "sub": html.Sub}
+    return [run if kind == "text" else tags[kind](run) for kind, run in pieces]
 
 
 def _number(value: Any, digits: int = 3) -> str:
@@ -148,7 +135,7 @@ def summary_view(selection: Any) -> Any:
     return [
         html.Strong(f"{len(selection.shortlist)} candidates"),
         f" ranked by {ranked}; {len(selection.rejected)} rejected. Merit index (maximise): M = ",
-        *formula(selection.index_text),
+        *formula(headline_index_pieces(selection)),
     ]
 
 
@@ -162,7 +149,10 @@ def derivation_view(selection: Any) -> Any:
             html.Div(
                 [
                     html.H3(
-                        [f"{d.constraint} constraint, minimise {d.objective}: M = ", *formula(d.index_text)]
+                        [
+                            f"{d.constraint} constraint, minimise {d.objective}: M = ",
+                            *formula(index_pieces(d)),
+                        ],
                     ),
                     html.P(f"{d.case.title}; free variable: {d.geometry.free}", className="small"),
                     html.Ol([html.Li(formula(step)) for step in d.steps]),
