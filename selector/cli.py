@@ -285,17 +285,7 @@ def rank(
             "add --tradeoff cost (or mass, co2)",
         )
     if other is not None or draws is not None:
-        if fmt == "xlsx":
-            raise InputError(
-                f"-o {output}",
-                "trade-off and robustness studies are written as text",
-                ".csv, .json, .md or .txt",
-            )
-        if fmt == "csv" and other is not None and draws is not None:
-            raise InputError(
-                "--format csv", "one CSV holds one table", "--tradeoff and --robust in separate runs"
-            )
-        _emit(_studies(selection, fmt, _width(wide, output)), output)
+        _show_studies(selection, fmt, units, top, output, _width(wide, output), [spec, *files])
         return
     if selection.sandwich is not None and fmt != "xlsx":
         from selector.outputs.sandwich_tables import render_sandwich
@@ -311,7 +301,46 @@ def rank(
     _emit(tables.render_selection(selection, fmt, units, top, show_all, _width(wide, output)), output)
 
 
-def _studies(selection: Selection, fmt: str, width: int | None = None) -> str:
+def _show_studies(
+    selection: Selection,
+    fmt: str,
+    units: str,
+    top: int | None,
+    output: str | None,
+    width: int | None,
+    protect: list[str],
+) -> None:
+    """Print or write every table of the studies: text and JSON whole, CSV one file per table,
+    XLSX one sheet per table beside the shortlist's sheets."""
+    for error in (selection.tradeoff_error, selection.robust_error):
+        if error is not None:
+            raise error
+    if fmt == "xlsx" and output:
+        from selector.outputs.export import write_xlsx
+
+        write_xlsx(selection, Path(output), units, protect=protect, top=top)
+        click.echo(f"wrote {output}", err=True)
+    elif fmt == "csv":
+        from selector.outputs.export import csv_tables, write_csv_tables
+        from selector.outputs.studies import study_frames
+
+        frames = study_frames(selection, units, top)
+        if output:
+            for path in write_csv_tables(frames, Path(output), selection, protect):
+                click.echo(f"wrote {path}", err=True)
+        else:
+            first, *others = csv_tables(frames, selection)
+            click.echo(first)
+            if others:
+                more = ", ".join(list(frames)[1:])
+                click.echo(f"also: {more} (-o FILE.csv writes each table, --format json all)", err=True)
+    else:
+        _emit(_studies(selection, fmt, width, units, top), output)
+
+
+def _studies(
+    selection: Selection, fmt: str, width: int | None = None, units: str = "si", top: int | None = None
+) -> str:
     """Text of the trade-off and robustness studies the Selection carries (JSON: one object)."""
     import json
 
@@ -327,23 +356,13 @@ def _studies(selection: Selection, fmt: str, width: int | None = None) -> str:
         study = selection.tradeoff
         parts.append(
             render_tradeoff(
-                study.front,
-                study.second,
-                fmt if fmt != "xlsx" else "table",
-                study.exchange,
-                study.note,
-                width,
-                short,
+                study.front, study.second, fmt, study.exchange, study.note, width, short, units, top
             )
         )
     if selection.robust_error is not None:
         raise selection.robust_error
     if selection.robust is not None:
-        parts.append(
-            render_robustness(
-                selection.robust, fmt if fmt != "xlsx" else "table", selection.sensitivity, width, short
-            )
-        )
+        parts.append(render_robustness(selection.robust, fmt, selection.sensitivity, width, short, top))
     if fmt == "json":
         asked = (("tradeoff", selection.tradeoff), ("robustness", selection.robust))
         names = [n for n, study in asked if study is not None]

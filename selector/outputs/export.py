@@ -3,14 +3,14 @@
 from __future__ import annotations
 
 import math
-from collections.abc import Sequence
+from collections.abc import Mapping, Sequence
 from pathlib import Path
 from typing import Any
 
 import numpy as np
 import pandas as pd
 
-from selector.outputs.cells import neutral
+from selector.outputs.cells import csv_text, neutral
 from selector.outputs.files import check_output, ensure_folder, write_bytes_atomic, write_text_atomic
 from selector.outputs.tables import flat_frame
 
@@ -98,8 +98,8 @@ def _sheet(
     return sheet
 
 
-def xlsx_bytes(selection: Any, units: str = "si") -> bytes:
-    """The workbook: shortlist, rejected classes, sized parts and the spec with its assumptions.
+def xlsx_bytes(selection: Any, units: str = "si", top: int | None = None) -> bytes:
+    """The workbook: shortlist, rejected classes, sized parts, a sheet per study table, the spec.
 
     A sandwich's workbook starts with its pairs and the classes left out as face or core;
     the solid parts follow as the shortlist.
@@ -139,6 +139,13 @@ def xlsx_bytes(selection: Any, units: str = "si") -> bytes:
     if selection.sandwich is not None:
         at = next(i for i, r in enumerate(rows) if r[0] == "caution")
         rows[at:at] = [["assumption", "sandwich", a] for a in selection.sandwich.assumptions]
+    from selector.outputs.studies import study_frames
+
+    for name, frame in study_frames(selection, units, top).items():
+        shown = _with_caution(frame, selection)
+        _sheet(
+            workbook, name, [str(c) for c in shown.columns], shown.to_numpy(dtype=object).tolist(), ("note",)
+        )
     _sheet(workbook, "spec", ["group", "field", "value"], rows, ("value",))
     buffer = io.BytesIO()
     workbook.save(buffer)
@@ -156,12 +163,48 @@ def _pairs_sheets(workbook: Any, selection: Any, units: str) -> None:
     _sheet(workbook, "left out", header, excluded[header].to_numpy(dtype=object).tolist(), ("reason",))
 
 
-def write_xlsx(selection: Any, path: Path, units: str = "si", protect: Sequence[str | Path] = ()) -> Path:
-    """Write the workbook atomically; refuses to write over any path in ``protect``."""
+def write_xlsx(
+    selection: Any,
+    path: Path,
+    units: str = "si",
+    protect: Sequence[str | Path] = (),
+    top: int | None = None,
+) -> Path:
+    """Write the workbook atomically; refuses to write over any path in ``protect``.
+
+    The studies the Selection carries get a sheet per table (``top`` rows of each when given).
+    """
     check_output(path, protect)
     ensure_folder(path)
-    write_bytes_atomic(Path(path), xlsx_bytes(selection, units))
+    write_bytes_atomic(Path(path), xlsx_bytes(selection, units, top))
     return Path(path)
+
+
+def _with_caution(frame: pd.DataFrame, selection: Any) -> pd.DataFrame:
+    """A study table with the caution in every row when it shows sized parts."""
+    return frame.assign(caution=selection.caution) if selection.has_sizes else frame
+
+
+def csv_tables(frames: Mapping[str, pd.DataFrame], selection: Any) -> list[str]:
+    """Each table as CSV text, in order."""
+    return [csv_text(_with_caution(frame, selection)) for frame in frames.values()]
+
+
+def write_csv_tables(
+    frames: Mapping[str, pd.DataFrame], path: Path, selection: Any, protect: Sequence[str | Path] = ()
+) -> list[Path]:
+    """The first table to ``path`` and each further one to ``<stem>-<name>.csv`` beside it.
+
+    Every path is checked before any is written; returns the paths written.
+    """
+    path = Path(path)
+    paths = [path, *(path.with_name(f"{path.stem}-{name}{path.suffix}") for name in list(frames)[1:])]
+    for target in paths:
+        check_output(target, protect)
+    ensure_folder(path)
+    for target, text in zip(paths, csv_tables(frames, selection), strict=True):
+        write_text_atomic(target, text + "\n")
+    return paths
 
 
 def write_selection(

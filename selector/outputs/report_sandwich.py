@@ -40,7 +40,7 @@ def _pair_rows(selection: Any, units: str) -> list[dict[str, Any]]:
                 "depth": _num(r[f"depth [{lu}]"]),
                 "mass": _num(r[f"mass [{mu}]"]),
                 "cost": _num(r["cost [USD]"]),
-                "co2": _num(r[f"co2 [{mu} CO2e]"]),
+                "co2": _num(r["co2 [kg CO2e]"]),
                 "bending": _num(r[f"deflection_bending [{lu}]"]),
                 "shear": _num(r[f"deflection_shear [{lu}]"]),
                 "utilisation": [

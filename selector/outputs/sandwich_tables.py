@@ -42,7 +42,7 @@ def pairs_frame(selection: Any, units: str = "si", top: int | None = None) -> pd
             f"depth [{lu}]": pairs["depth"] * lf,
             f"mass [{mu}]": pairs["mass"] * mf,
             "cost [USD]": pairs["cost"],
-            f"co2 [{mu} CO2e]": pairs["co2"] * mf,
+            "co2 [kg CO2e]": pairs["co2"],
             "energy [MJ]": pairs["energy"],
             f"deflection_bending [{lu}]": pairs["deflection_bending"] * lf,
             f"deflection_shear [{lu}]": pairs["deflection_shear"] * lf,
@@ -88,7 +88,7 @@ def _json(selection: Any, units: str, top: int | None) -> str:
                 },
                 "mass": {"value": _json_value(r[f"mass [{mu}]"]), "unit": mu},
                 "cost": {"value": _json_value(r["cost [USD]"]), "unit": "USD"},
-                "co2": {"value": _json_value(r[f"co2 [{mu} CO2e]"]), "unit": f"{mu} CO2e"},
+                "co2": {"value": _json_value(r["co2 [kg CO2e]"]), "unit": "kg CO2e"},
                 "energy": {"value": _json_value(r["energy [MJ]"]), "unit": "MJ"},
                 "deflection": {
                     "bending": {"value": _json_value(r[f"deflection_bending [{lu}]"]), "unit": lu},
@@ -110,7 +110,7 @@ def _json(selection: Any, units: str, top: int | None) -> str:
             "dimensions": {"h": {"value": float(solid["thickness"]) * lf, "unit": lu}},
             "mass": {"value": float(solid["mass"]) * mf, "unit": mu},
             "cost": {"value": float(solid["cost"]), "unit": "USD"},
-            "co2": {"value": float(solid["co2"]) * mf, "unit": f"{mu} CO2e"},
+            "co2": {"value": float(solid["co2"]), "unit": "kg CO2e"},
             "governing": solid["governing"],
         }
     out = {

@@ -1,9 +1,15 @@
-"""Tables of the trade-off and robustness studies: the frames the pipeline computed, as text."""
+"""Tables of the trade-off and robustness studies: the frames the pipeline computed, as text.
+
+Every table a study prints is also available as a frame by name (``study_frames``), so
+each output format can carry all of them: one JSON object, one CSV file per table, one
+workbook sheet per table.
+"""
 
 from __future__ import annotations
 
 import json
 from collections.abc import Mapping
+from typing import Any
 
 import pandas as pd
 
@@ -14,18 +20,36 @@ from selector.pipeline.columns import is_index_column
 from selector.pipeline.robust import RobustResult
 from selector.pipeline.tradeoff import EXCHANGE_LABELS
 
-_LABELS = {**{k: f"{k} [{u}]" for k, u in OBJECTIVE_UNITS.items()}, "penalty": "penalty [USD]"}
+POUND = 0.45359237
+"""kg per pound (exact)."""
+CUBIC_INCH = 0.0254**3
+"""m³ per cubic inch (exact)."""
+
+_US = {"mass": ("lb", 1 / POUND), "volume": ("in³", 1 / CUBIC_INCH)}
+"""Objectives shown in US units: (unit, factor from the SI value). Cost stays in USD and
+embodied carbon in kg CO2e, units used the world over."""
+_US_ALPHA = {"USD/kg": ("USD/lb", POUND), "USD/m³": ("USD/in³", CUBIC_INCH)}
+"""Exchange constants shown in US units: (unit, factor from the SI value)."""
 
 
-def _display(frame: pd.DataFrame) -> pd.DataFrame:
-    """Units into the headers; α columns labelled with their unit."""
+def _display(frame: pd.DataFrame, units: str = "si") -> pd.DataFrame:
+    """Units into the headers, in the chosen system; α columns labelled with their unit."""
     out = frame.copy()
+    labels = {"penalty": "penalty [USD]"}
+    for name, unit in OBJECTIVE_UNITS.items():
+        if units == "us" and name in _US and name in out:
+            unit, factor = _US[name]
+            out[name] = out[name] * factor
+        labels[name] = f"{name} [{unit}]"
     if "alpha_unit" in out:
-        unit = out["alpha_unit"].iloc[0] if len(out) else ""
+        unit = str(out["alpha_unit"].iloc[0]) if len(out) else ""
+        if units == "us" and unit in _US_ALPHA:
+            unit, factor = _US_ALPHA[unit]
+            out[["alpha_low", "alpha_high"]] = out[["alpha_low", "alpha_high"]] * factor
         out = out.drop(columns="alpha_unit").rename(
             columns={"alpha_low": f"alpha_low [{unit}]", "alpha_high": f"alpha_high [{unit}]"}
         )
-    return out.rename(columns=_LABELS)
+    return out.rename(columns=labels)
 
 
 def _short_of(class_id: str, name: str, short: Mapping[str, str]) -> str:
@@ -54,6 +78,50 @@ def _layout(frame: pd.DataFrame, short: Mapping[str, str] | None, optional: tupl
     )
 
 
+def _head(frame: pd.DataFrame, top: int | None) -> pd.DataFrame:
+    return frame if top is None else frame.head(top)
+
+
+def tradeoff_frames(
+    front: pd.DataFrame, second: pd.DataFrame, units: str = "si", top: int | None = None
+) -> dict[str, pd.DataFrame]:
+    """The trade-off's tables as shown, by name: ``front`` and ``penalty`` or ``ranges``.
+
+    ``top`` keeps the first N rows of each (the front by rank, the penalty ranking best first).
+    """
+    kind = "penalty" if "penalty" in second else "ranges"
+    return {"front": _display(_head(front, top), units), kind: _display(_head(second, top), units)}
+
+
+def _odds(result: RobustResult) -> pd.DataFrame:
+    return result.table.rename(
+        columns={"p_top_k": f"p_top_{result.top_k}", "p_top_k_se": f"p_top_{result.top_k}_se"}
+    )
+
+
+def robustness_frames(
+    result: RobustResult, sensitivity: pd.DataFrame | None = None, top: int | None = None
+) -> dict[str, pd.DataFrame]:
+    """The robustness study's tables, by name: ``robustness`` (the odds) and ``sensitivity``.
+
+    ``top`` keeps the odds of the first N candidates.
+    """
+    frames = {"robustness": _head(_odds(result), top)}
+    if sensitivity is not None and not sensitivity.empty:
+        frames["sensitivity"] = sensitivity
+    return frames
+
+
+def study_frames(selection: Any, units: str = "si", top: int | None = None) -> dict[str, pd.DataFrame]:
+    """Every table of the studies a Selection carries, by name, in the order they print."""
+    frames: dict[str, pd.DataFrame] = {}
+    if selection.tradeoff is not None:
+        frames |= tradeoff_frames(selection.tradeoff.front, selection.tradeoff.second, units, top)
+    if selection.robust is not None:
+        frames |= robustness_frames(selection.robust, selection.sensitivity, top)
+    return frames
+
+
 def render_tradeoff(
     front: pd.DataFrame,
     second: pd.DataFrame,
@@ -62,44 +130,45 @@ def render_tradeoff(
     note: str = "",
     width: int | None = None,
     short: Mapping[str, str] | None = None,
+    units: str = "si",
+    top: int | None = None,
 ) -> str:
     """The two frames of ``tradeoff_report`` as text (table, md, csv or json).
 
     ``csv`` gives the second frame only (it carries the front members' values);
     ``json`` gives one object with both. ``note`` is what the study assumes (shown above
     the tables, and as ``note`` in JSON). A terminal table fits ``width`` characters, naming
-    classes by ``short`` (id → short name) when it must.
+    classes by ``short`` (id → short name) when it must; ``top`` keeps N rows of each.
     """
+    frames = tradeoff_frames(front, second, units, top)
     kind = "penalty" if "penalty" in second else "ranges"
     if fmt == "json":
-        doc = {
-            "front": json.loads(render(_display(front), "json")),
-            kind: json.loads(render(_display(second), "json")),
-        }
+        doc = {name: json.loads(render(f, "json")) for name, f in frames.items()}
         return json.dumps(doc | ({"note": note} if note else {}), indent=2)
     if fmt == "csv":
-        return render(_display(second), "csv")
+        return render(frames[kind], "csv")
     body = "md" if fmt == "md" else "table"
     objectives = [c for c in front.columns if c in OBJECTIVE_UNITS or is_index_column(c)]
+    shown = f", the first {top} shown" if top is not None and top < len(front) else ""
     lines = [
-        f"Pareto front ({' vs '.join(objectives)}; all minimised): {len(front)} members",
+        f"Pareto front ({' vs '.join(objectives)}; all minimised): {len(front)} members{shown}",
         *([f"note: {note}"] if note else []),
         "",
-        render(_display(front), body, width, _layout(front, short, ("rank",))),
+        render(frames["front"], body, width, _layout(frames["front"], short, ("rank",))),
         "",
     ]
     if kind == "penalty":
         priced = [c for c in second.columns if c in EXCHANGE_LABELS]
         terms = " + ".join(f"α_{c}·{c}" for c in priced)
-        shown = f" = {exchange}" if exchange is not None else ""
-        lines.append(f"Ranked by penalty Z = cost + {terms} [USD] (α{shown})")
+        given = f" = {exchange}" if exchange is not None else ""
+        lines.append(f"Ranked by penalty Z = cost + {terms} [USD] (α{given})")
     else:
         lines.append(
             "Exchange-constant range over which each front member is the best choice "
             "(Z = y + α·x; empty where never best)"
         )
     lines = wrap(lines, width)
-    lines += ["", render(_display(second), body, width, _layout(second, short, ("on_hull", "rank")))]
+    lines += ["", render(frames[kind], body, width, _layout(frames[kind], short, ("on_hull", "rank")))]
     return "\n".join(lines)
 
 
@@ -109,11 +178,15 @@ def render_robustness(
     sensitivity: pd.DataFrame | None = None,
     width: int | None = None,
     short: Mapping[str, str] | None = None,
+    top: int | None = None,
 ) -> str:
     """The odds (and optionally the sensitivity) as text: table, md, csv or json.
 
-    ``csv`` gives the odds only; ``json`` one object with the run's settings.
+    ``csv`` gives the odds only; ``json`` one object with the run's settings; ``top``
+    keeps the odds of the first N candidates.
     """
+    frames = robustness_frames(result, sensitivity, top)
+    odds = frames["robustness"]
     if fmt == "json":
         doc = {
             "draws": result.draws,
@@ -123,16 +196,13 @@ def render_robustness(
             "top_k": result.top_k,
             "ranked_by": result.ranked_by,
             "properties": list(result.properties),
-            "candidates": json.loads(render(result.table, "json")),
+            "candidates": json.loads(render(result.table if top is None else result.table.head(top), "json")),
         }
         if sensitivity is not None:
             doc["sensitivity"] = json.loads(render(sensitivity, "json"))
         return json.dumps(doc, indent=2)
-    shown = result.table.rename(
-        columns={"p_top_k": f"p_top_{result.top_k}", "p_top_k_se": f"p_top_{result.top_k}_se"}
-    )
     if fmt == "csv":
-        return render(shown, "csv")
+        return render(odds, "csv")
     body = "md" if fmt == "md" else "table"
     better = (
         "higher merit index is better"
@@ -145,19 +215,20 @@ def render_robustness(
         f"seed {result.seed}; {better}",
         f"properties drawn: {', '.join(result.properties) or 'none'}",
         "",
-        render(shown, body, width, _layout(shown, short, _spare_odds(shown)))
+        render(odds, body, width, _layout(odds, short, _spare_odds(odds)))
         if not result.table.empty
         else "no ranked candidates",
         "",
         "p_best, p_top_k: odds of ranking first / in the top k; *_se: Monte Carlo standard error; "
         "rank_p05..p95: 5th, 50th and 95th percentile of the rank",
     ]
-    if sensitivity is not None and not sensitivity.empty:
+    if "sensitivity" in frames:
+        leader = frames["sensitivity"]["leader"].iat[0]
         lines += [
             "",
-            f"Sensitivity of the leader ({sensitivity['leader'].iat[0]}) to each property's scatter:",
+            f"Sensitivity of the leader ({leader}) to each property's scatter:",
             "",
-            render(sensitivity, body, width, Layout(elide=("property",))),
+            render(frames["sensitivity"], body, width, Layout(elide=("property",))),
         ]
     return "\n".join(wrap(lines, width))
 
@@ -168,4 +239,4 @@ def _spare_odds(shown: pd.DataFrame) -> tuple[str, ...]:
     return (*errors, "rank_p05", "rank_p95", "rank")
 
 
-__all__ = ["render_robustness", "render_tradeoff"]
+__all__ = ["render_robustness", "render_tradeoff", "robustness_frames", "study_frames", "tradeoff_frames"]

@@ -15,8 +15,9 @@ import numpy as np
 import pandas as pd
 
 from selector.errors import InputError
-from selector.inputs.properties import PROPERTIES, RATINGS, property_of
+from selector.inputs.properties import PROPERTIES, RATINGS
 from selector.inputs.units import format_number
+from selector.outputs import display_units
 from selector.outputs.cells import csv_text, markdown_text
 from selector.outputs.terminal import Layout, fit_table, wrap
 from selector.pipeline import columns
@@ -59,6 +60,16 @@ def property_values(table: pd.DataFrame, symbol: str, units: str) -> tuple[np.nd
 
         low, high = convert(low, prop.stored, prop.us), convert(high, prop.stored, prop.us)
     return low, high
+
+
+def _people_range(symbol: str, low: float, high: float, units: str) -> tuple[str, str]:
+    """(text, unit) of a stored-unit range in the unit that reads best for its size."""
+    shown = display_units.range_unit(symbol, high, units)
+    if math.isnan(shown.factor):  # an offset unit (temperature): through the unit registry
+        one = pd.DataFrame({PROPERTIES[symbol].low: [low], PROPERTIES[symbol].high: [high]})
+        lo, hi = property_values(one, symbol, units)
+        return _range(float(lo[0]), float(hi[0])), shown.label
+    return _range(low * shown.factor, high * shown.factor), shown.label
 
 
 def _range(low: float, high: float) -> str:
@@ -120,10 +131,15 @@ def materials_summary(table: pd.DataFrame, units: str = "si") -> pd.DataFrame:
     """A narrow view for people: id, name, family and the ranges of a few key properties."""
     out = table[["id", "name", "family"]].copy()
     for symbol in SUMMARY_PROPERTIES:
-        low, high = property_values(table, symbol, units)
-        out[f"{symbol} [{property_unit(symbol, units)}]"] = [
-            _range(lo, hi) for lo, hi in zip(low, high, strict=True)
-        ]
+        prop = PROPERTIES[symbol]
+        highs = table[prop.high].to_numpy(float)
+        typical = float(np.nanmedian(highs)) if np.isfinite(highs).any() else float("nan")
+        column = display_units.range_unit(symbol, typical, units).label  # the unit most rows read best in
+        cells = []
+        for lo, hi in zip(table[prop.low].to_numpy(float), table[prop.high].to_numpy(float), strict=True):
+            text, unit = _people_range(symbol, float(lo), float(hi), units)
+            cells.append(text if unit == column or text == "n/a" else f"{text} {unit}")
+        out[f"{symbol} [{column}]"] = cells
     return out.reset_index(drop=True)
 
 
@@ -144,13 +160,20 @@ def class_frame(table: pd.DataFrame, class_id: str, units: str = "si") -> pd.Dat
         {"property": "family", "low": row["family"].iat[0], "high": "", "unit": ""},
     ]
     for symbol, prop in PROPERTIES.items():
-        low, high = property_values(row, symbol, units)
+        shown = display_units.range_unit(symbol, float(row[prop.high].iat[0]), units)
+        if math.isnan(shown.factor):
+            low, high = property_values(row, symbol, units)
+        else:
+            low, high = (
+                row[prop.low].to_numpy(float) * shown.factor,
+                row[prop.high].to_numpy(float) * shown.factor,
+            )
         records.append(
             {
                 "property": f"{symbol} ({prop.name})",
                 "low": low[0],
                 "high": high[0],
-                "unit": property_unit(symbol, units),
+                "unit": shown.label,
             }
         )
     for rating, meaning in RATINGS.items():
@@ -285,19 +308,13 @@ def render_derivation(d: Any, fmt: str, width: int | None = None) -> str:
     return "\n".join(wrap(lines, width, indent="     "))
 
 
-def index_unit(exponents: dict[str, float]) -> str:
-    """Unit of an index computed in stored units, e.g. ``GPa^0.5/(kg/m³)``."""
-    up: list[str] = []
-    down: list[str] = []
-    for s, p in exponents.items():
-        label = property_of(s).label
-        label = f"({label})" if ("/" in label or "·" in label or " " in label) else label
-        part = label if abs(p) == 1 else f"{label}^{abs(p):.3g}"
-        (up if p > 0 else down).append(part)
-    top = "·".join(up) or "1"
-    if not down:
-        return top
-    return f"{top}/" + ("·".join(down) if len(down) == 1 else "(" + "·".join(down) + ")")
+def index_shown(selection: Any, units: str = "si") -> display_units.Shown:
+    """The unit the Selection's index is shown in, and its factor from stored units (``display_units``)."""
+    exponents = selection.index_exponents
+    if exponents is None:
+        return display_units.Shown("as typed", 1.0)
+    values = selection.shortlist[columns.INDEX].to_numpy(dtype=float)
+    return display_units.index_unit(exponents, units, values)
 
 
 def header(column: str, unit: str) -> str:
@@ -315,8 +332,7 @@ def split_header(label: str) -> tuple[str, str | None]:
 
 def column_headers(selection: Any, units: str = "si") -> dict[str, str]:
     """The display header of each shortlist column that carries a unit, keyed by its column name."""
-    exponents = selection.index_exponents
-    unit = index_unit(exponents) if exponents is not None else "as typed"
+    unit = index_shown(selection, units).label
     mu, lu = MASS_UNIT[units], LENGTH_UNIT[units]
     return {
         columns.INDEX: header(columns.INDEX, unit),
@@ -325,7 +341,7 @@ def column_headers(selection: Any, units: str = "si") -> dict[str, str]:
         columns.INDEX_WITH_SHAPE: header(columns.INDEX_WITH_SHAPE, unit),
         columns.MASS: header(columns.MASS, mu),
         columns.COST: header(columns.COST, "USD"),
-        columns.CO2: header(columns.CO2, f"{mu} CO2e"),
+        columns.CO2: header(columns.CO2, "kg CO2e"),
         columns.ENERGY: header(columns.ENERGY, "MJ"),
         columns.DEFLECTION: header(columns.DEFLECTION, lu),
         columns.TWIST: header(columns.TWIST, ANGLE_UNIT),
@@ -345,6 +361,7 @@ def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -
     """The shortlist (and optionally the rejected classes) with units in the headers."""
     table = selection.table if show_all else selection.shortlist
     heads = column_headers(selection, units)
+    k = index_shown(selection, units).factor
     out = pd.DataFrame(
         {
             columns.RANK: table[columns.RANK],
@@ -352,9 +369,9 @@ def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -
             columns.NAME: table[columns.NAME],
             columns.FAMILY: table[columns.FAMILY],
             columns.STATUS: table[columns.STATUS],
-            heads[columns.INDEX]: table[columns.INDEX],
-            heads[columns.INDEX_LOW]: table[columns.INDEX_LOW],
-            heads[columns.INDEX_HIGH]: table[columns.INDEX_HIGH],
+            heads[columns.INDEX]: table[columns.INDEX] * k,
+            heads[columns.INDEX_LOW]: table[columns.INDEX_LOW] * k,
+            heads[columns.INDEX_HIGH]: table[columns.INDEX_HIGH] * k,
             columns.CLOSE_TO_LEADER: table[columns.CLOSE_TO_LEADER].astype(bool),
         }
     )
@@ -362,7 +379,7 @@ def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -
         out.insert(
             out.columns.get_loc(columns.CLOSE_TO_LEADER),
             heads[columns.INDEX_WITH_SHAPE],
-            table[columns.INDEX_WITH_SHAPE],
+            table[columns.INDEX_WITH_SHAPE] * k,
         )
     if selection.has_sizes:
         lf, mf = _LENGTH_FACTOR[units], _MASS_FACTOR[units]
@@ -385,9 +402,17 @@ def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -
         out["governing"] = table[columns.GOVERNING]
         if columns.GOVERNING_INDEX in table:
             out["governing_index"] = table[columns.GOVERNING_INDEX]
-        out["warnings"] = table[columns.SIZE_WARNINGS]
-    out["reasons"] = table[columns.REASONS]
+        out["warnings"] = _texts_in(table[columns.SIZE_WARNINGS], units)
+    out["reasons"] = _texts_in(table[columns.REASONS], units)
     return out.reset_index(drop=True)
+
+
+def _texts_in(texts: pd.Series, units: str) -> list[Any]:
+    """Reasons or warnings (lists of text) with their quantities in ``units``."""
+    return [
+        [display_units.text_in_units(str(t), units) for t in x] if isinstance(x, list | tuple) else x
+        for x in texts
+    ]
 
 
 def flat_frame(selection: Any, units: str = "si", show_all: bool = False) -> pd.DataFrame:

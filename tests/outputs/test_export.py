@@ -70,8 +70,16 @@ def _check_against_selection(frame: pd.DataFrame, selection, units: str = "si") 
         expected = [d[dim] * length_factor for d in short["dimensions"][ok]]
         np.testing.assert_allclose(frame[f"{dim} [{length_unit}]"].to_numpy(float)[ok], expected, rtol=1e-9)
     unit = next(c for c in frame.columns if c.startswith("index ["))
-    assert unit == "index [GPa^0.5/(kg/m³)]"
-    np.testing.assert_allclose(frame[unit].to_numpy(float), short["index"].to_numpy(float), rtol=1e-9)
+    # the index in published chart units: density in Mg/m³ (SI) or lb/in³ (1 lb/in³ = 27679.90 kg/m³,
+    # 1 Msi = 6.894757 GPa; NIST SP 811)
+    expected_unit, factor = {
+        "mm": ("index [GPa^(1/2)/(Mg/m³)]", 1e3),
+        "in": ("index [Msi^(1/2)/(lb/in³)]", (1 / 6.894757) ** 0.5 * 27679.90),
+    }[length_unit]
+    assert unit == expected_unit
+    np.testing.assert_allclose(
+        frame[unit].to_numpy(float), short["index"].to_numpy(float) * factor, rtol=1e-6
+    )
     assert list(frame["governing"]) == list(short["governing"])
 
 
@@ -105,7 +113,8 @@ def test_json_read_back_every_number_carries_its_unit(selection, tmp_path):
             "value": pytest.approx(row["dimensions"]["d"] * 1e3),
             "unit": "mm",
         }
-        assert record["index"]["unit"] == "GPa^0.5/(kg/m³)"
+        assert record["index"]["unit"] == "GPa^(1/2)/(Mg/m³)"
+        assert record["index"]["value"] == pytest.approx(row["index"] * 1e3, rel=1e-12)
         # Apart from the rank (a count) and the utilisation ratios (demand / limit, no unit),
         # no bare number appears: each is a {"value", "unit"} pair.
         for key, value in record.items():

@@ -181,7 +181,7 @@ def test_screens_and_every_rejected_class_with_its_reasons(page, selection):
 
 def test_shortlist_table_has_sizes_utilisations_and_governing(page, selection):
     header, *rows = page.tables["shortlist"]
-    assert header[:3] == ["Rank", "Class", "Merit index GPa0.5/(kg/m³)"]
+    assert header[:3] == ["Rank", "Class", "Merit index GPa1/2/(Mg/m³)"]
     assert "Mass kg" in header and "Utilisation" in header and "Governing" in header
     assert len(rows) == len(selection.shortlist)
     short = selection.shortlist

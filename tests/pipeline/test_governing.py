@@ -86,4 +86,5 @@ def test_a_conservative_ranking_by_index_shows_the_low_end_that_ranks():
     assert "index_low " in header and "GPa" in lines[at + 1]
     start = header.index("index_low ")
     shown = [float(line[start:].split()[0]) for line in rows]
-    assert shown == sorted(shown, reverse=True) == [pytest.approx(0.1), pytest.approx(0.05)]
+    # E/ρ shown in GPa/(Mg/m³): 0.1 GPa/(kg/m³) reads 100
+    assert shown == sorted(shown, reverse=True) == [pytest.approx(100), pytest.approx(50)]
