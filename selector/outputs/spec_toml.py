@@ -14,12 +14,12 @@ from typing import Any
 
 TABLE_ORDER = ("part", "section", "sandwich", "objective", "constraint", "screen", "materials")
 """Tables in the order the examples give them; any other table follows."""
-_BARE_KEY = re.compile(r"^[A-Za-z0-9_-]+$")
+_BARE_KEY = re.compile(r"[A-Za-z0-9_-]+")
 _ESCAPES = {'"': '\\"', "\\": "\\\\", "\b": "\\b", "\t": "\\t", "\n": "\\n", "\f": "\\f", "\r": "\\r"}
 
 
 def _key(key: str) -> str:
-    return key if _BARE_KEY.match(key) else _string(key)
+    return key if _BARE_KEY.fullmatch(key) else _string(key)
 
 
 def _string(text: str) -> str:

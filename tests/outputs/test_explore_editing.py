@@ -12,7 +12,7 @@ from dataclasses import replace
 from typing import Any
 
 import pytest
-from hypothesis import given, settings
+from hypothesis import example, given, settings
 from hypothesis import strategies as st
 
 from selector.inputs.spec import DEMO_SPEC, EXAMPLES
@@ -230,6 +230,7 @@ _key = st.text(st.characters(codec="utf-8", exclude_categories=("Cs",)), min_siz
 
 
 @settings(max_examples=60, deadline=None)
+@example(top={}, tables={}, items=[{"0\n": ""}])  # a key ending in a newline must be quoted
 @given(
     top=st.dictionaries(_key, _scalar, max_size=4),
     tables=st.dictionaries(
