@@ -24,12 +24,6 @@ ALLOWED = {
 }
 
 
-# The one upward import allowed, and why: a Selection displays itself in Jupyter
-# (``_repr_html_``) and draws its chart (``Selection.chart``) through outputs.notebook,
-# imported inside those two methods only, so loading the pipeline never loads an output.
-NOTEBOOK_HOOKS = {("selector.pipeline.selection", "selector.outputs.notebook")}
-
-
 def module_name(path: Path) -> str:
     parts = list(path.relative_to(PACKAGE.parent).with_suffix("").parts)
     if parts[-1] == "__init__":
@@ -41,7 +35,7 @@ def layer(module: str) -> str:
     parts = module.split(".")
     if len(parts) > 1 and parts[1] in ("inputs", "mechanics", "pipeline", "outputs"):
         return parts[1]
-    if module in ("selector.cli", "selector.api", "selector.__main__"):
+    if module in ("selector.cli", "selector.api", "selector.interactive", "selector.__main__"):
         return "entry"
     return "base"
 
@@ -85,30 +79,11 @@ def imports_of(path: Path, modules: set[str]) -> set[str]:
 
 
 def import_graph() -> dict[str, set[str]]:
-    """Every module's imports of the package's modules, less the NOTEBOOK_HOOKS."""
+    """Every module's imports of the package's modules."""
     paths = {module_name(p): p for p in PACKAGE.rglob("*.py")}
     modules = set(paths)
     graph = {name: imports_of(path, modules) & modules for name, path in paths.items()}
-    return {name: {t for t in targets if (name, t) not in NOTEBOOK_HOOKS} for name, targets in graph.items()}
-
-
-def _module_level_imports(path: Path) -> set[str]:
-    """The selector modules imported at the top level of a file (not inside a function)."""
-    found: set[str] = set()
-    for node in ast.parse(path.read_text(encoding="utf-8")).body:
-        if isinstance(node, ast.ImportFrom) and (node.module or "").startswith("selector"):
-            found.add(str(node.module))
-        elif isinstance(node, ast.Import):
-            found.update(a.name for a in node.names if _ours(a.name))
-    return found
-
-
-def test_notebook_hooks_are_the_only_upward_imports_and_lazy():
-    paths = {module_name(p): p for p in PACKAGE.rglob("*.py")}
-    modules = set(paths)
-    for src, dst in NOTEBOOK_HOOKS:
-        assert dst in imports_of(paths[src], modules), f"{src} no longer imports {dst}: drop the hook"
-        assert dst not in _module_level_imports(paths[src]), f"{src} must import {dst} inside a method"
+    return graph
 
 
 def test_graph_sees_imports_inside_functions():

@@ -1,8 +1,8 @@
 """A Selection as Jupyter shows it: the top of the shortlist, what governs, and the caution.
 
-``Selection._repr_html_`` and ``Selection.chart`` call into this module (a lazy import,
-the one documented exception to "the pipeline imports no output"). It reads the
-Selection and converts units for display; it computes nothing.
+The public API's Selection (``selector.interactive``) calls into this module from its
+``_repr_html_`` and ``chart``. It reads the Selection and converts units for display; it
+computes nothing.
 """
 
 from __future__ import annotations

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, field, replace
-from typing import TYPE_CHECKING, Any
+from typing import Any
 
 import numpy as np
 import pandas as pd
@@ -49,9 +49,6 @@ from selector.pipeline.screen import (
 from selector.pipeline.sizing import DEFAULT_DIMS, Design, missing_inputs, size_parts
 from selector.pipeline.tradeoff import SECOND_OBJECTIVE, TradeoffStudy, tradeoff_report
 from selector.pipeline.variants import IMPLICIT_CONSTRAINTS, case_for
-
-if TYPE_CHECKING:
-    import plotly.graph_objects as go
 
 SYMBOL_OF_FIELD = {
     "length": "L",
@@ -161,23 +158,6 @@ class Selection:
     @property
     def rejected(self) -> pd.DataFrame:
         return self.table[self.table["rank"].isna()].reset_index(drop=True)
-
-    # The two methods below are for notebooks. They import ``selector.outputs.notebook``
-    # when called: the one place the pipeline reaches an output (tests/test_layout.py,
-    # NOTEBOOK_HOOKS), lazily, so the pipeline never loads outputs on import.
-
-    def _repr_html_(self) -> str:
-        """The top of the shortlist, what governs and the caution, for Jupyter."""
-        from selector.outputs.notebook import selection_html
-
-        return selection_html(self)
-
-    def chart(self, x: str | None = None, y: str | None = None, **options: object) -> go.Figure:
-        """A plotly figure of this Selection: properties ``x`` against ``y`` (the index's axes
-        by default; the face × core pairs for a sandwich); ``options`` as ``chart_for_selection``."""
-        from selector.outputs.notebook import selection_chart
-
-        return selection_chart(self, x, y, **options)
 
 
 SIZABLE_SHAPES = ("generic", "rectangle", "round", "tube", "box", "i-section", "channel", "angle", "tee")
