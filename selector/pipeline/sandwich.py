@@ -225,17 +225,6 @@ def _usable(props: Mapping[str, np.ndarray]) -> np.ndarray:
     return np.logical_and.reduce([np.isfinite(v) & (v > 0) for k, v in props.items() if k != "q"])
 
 
-def _worst(
-    case: sw.SandwichCase,
-    loads: Mapping[str, sw.Value],
-    faces: Mapping[str, sw.Value],
-    cores: Mapping[str, sw.Value],
-    t_f: sw.Value,
-    t_c: sw.Value,
-) -> np.ndarray:
-    return sw.max_utilisation(case, loads, faces, cores, t_f, t_c)
-
-
 def least_face(
     case: sw.SandwichCase,
     loads: Mapping[str, sw.Value],
@@ -248,10 +237,13 @@ def least_face(
     """The least t_f [m] in [f_min, f_max] meeting every mode at core thickness t_c; NaN where none does."""
     lo = np.broadcast_to(f_min, np.shape(t_c)).astype(float)
     hi = np.broadcast_to(f_max, np.shape(t_c)).astype(float)
-    possible = (hi >= lo) & (_worst(case, loads, faces, cores, hi, t_c) <= 1 + FEASIBLE_SLACK)
-    done = _worst(case, loads, faces, cores, lo, t_c) <= 1
+    possible = (hi >= lo) & (sw.max_utilisation(case, loads, faces, cores, hi, t_c) <= 1 + FEASIBLE_SLACK)
+    done = sw.max_utilisation(case, loads, faces, cores, lo, t_c) <= 1
     _, upper = bisect_log(
-        lambda t_f: _worst(case, loads, faces, cores, t_f, t_c) <= 1, lo, np.maximum(hi, lo), BISECTIONS
+        lambda t_f: sw.max_utilisation(case, loads, faces, cores, t_f, t_c) <= 1,
+        lo,
+        np.maximum(hi, lo),
+        BISECTIONS,
     )
     t_f = np.where(done, lo, upper)
     return np.where(possible, t_f, np.nan)

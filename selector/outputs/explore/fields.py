@@ -11,9 +11,11 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from selector.inputs.spec_keys import PART_KEYS
 from selector.mechanics.failure_modes import CRITERIA
 from selector.mechanics.loadcases import BEAM_LOADS, BEAM_SUPPORTS, COLUMN_SUPPORTS
 from selector.mechanics.plates import PLATE_EDGES
+from selector.mechanics.sections import SHAPES
 from selector.mechanics.springs import SPRING_FORMS
 from selector.pipeline.sandwich import DEFAULT_CORE_FAMILIES, DEFAULT_FACE_FAMILIES
 from selector.pipeline.selection import SIZABLE_SHAPES
@@ -112,28 +114,16 @@ FIELD_BY_KEY = {f.key: f for f in FIELDS}
 FIELD_BY_PATH = {f.path: f for f in FIELDS}
 
 PART_FIELDS_OF: dict[str, tuple[str, ...]] = {
-    "tie": ("length", "force"),
-    "beam": ("support", "load", "length", "force"),
-    "column": ("support", "length", "force"),
-    "shaft": ("length", "torque"),
-    "panel": ("support", "load", "edges", "length", "width", "force"),
-    "plate": ("edges", "length", "width", "force"),
-    "cylinder": ("length", "radius", "pressure"),
-    "sphere": ("radius", "pressure"),
-    "spring": ("form", "energy"),
+    # A beam's width is left to the section's own dimensions here (the spec reads it only
+    # when the depth is free).
+    function: tuple(k for k in keys if (function, k) != ("beam", "width"))
+    for function, keys in PART_KEYS.items()
 }
 """The part's keys each function reads."""
 
 SHAPE_DIMS: dict[str, tuple[str, ...]] = {
     "generic": (),
-    "rectangle": ("b", "h"),
-    "round": ("d",),
-    "tube": ("d", "t"),
-    "box": ("b", "h", "t"),
-    "i-section": ("b", "h", "tf", "tw"),
-    "channel": ("b", "h", "tf", "tw"),
-    "angle": ("b", "h", "t"),
-    "tee": ("b", "h", "tf", "tw"),
+    **{shape: dims for shape, dims in SHAPES.items() if shape != "sandwich"},
 }
 """The reference dimensions of each shape the sizing takes."""
 
