@@ -24,6 +24,7 @@ QUANTITY_RANGES: dict[str, tuple[float, float]] = {
     "Pa": (1e-3, 1e12),
     "J": (1e-9, 1e12),
     "radian": (1e-9, 1e3),
+    "Hz": (1e-9, 1e12),
 }
 """SI unit → (smallest, largest) value accepted for a load, a length or a limit."""
 SAFETY_FACTOR_RANGE = (1e-3, 1e3)

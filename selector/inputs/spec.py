@@ -238,7 +238,8 @@ def _problem(error: Any, source: str) -> InputError:
 
 def spec_from_dict(data: dict[str, Any], source: str = "spec") -> Spec:
     """Validate a spec given as nested dicts; a key its function, shape or constraint does not
-    read is a problem too (``spec_keys``).
+    read is a problem too (``spec_keys``), and so is a quantity that does not read in its SI
+    unit within range (``spec_quantities``).
 
     Raises:
         SpecError: listing every problem found, each with its field path and location.
@@ -250,8 +251,11 @@ def spec_from_dict(data: dict[str, Any], source: str = "spec") -> Spec:
         problems = [_problem(e, source) for e in exc.errors()]
         seen = {p.location for p in problems}
         raise SpecError(problems + [p for p in unread if p.location not in seen]) from None
-    if unread:
-        raise SpecError(unread)
+    from selector.inputs.spec_quantities import quantity_problems
+
+    problems = [*unread, *quantity_problems(spec, source)]
+    if problems:
+        raise SpecError(problems)
     return spec
 
 

@@ -7,7 +7,7 @@ lowest natural frequency, and the effective span of a plate's first mode.
 
 from __future__ import annotations
 
-from collections.abc import Callable, Iterable, Mapping
+from collections.abc import Iterable, Mapping
 from typing import Any
 
 import numpy as np
@@ -25,16 +25,15 @@ MADE_OF: dict[str, tuple[str, ...]] = {"sigma_R": ("sigma_e", "sigma_ts")}
 """Stored properties each derived property is computed from."""
 
 
-def failure_limits(constraint: Any, where: str, function: str) -> dict[str, float]:
+def failure_limits(constraint: Any, where: str, function: str, si: Mapping[str, float]) -> dict[str, float]:
     """The symbols a fracture, fatigue or frequency constraint adds (a, Y, f_min); checks its fields.
 
     Args:
         constraint: one ``[[constraint]]`` of the spec.
         where: its location for messages, e.g. ``constraint[2]``.
         function: the part's function (a criterion needs a vessel).
+        si: the spec's quantities in SI by path (``spec_quantities.si_values``).
     """
-    from selector.inputs.units import magnitude_in
-
     for fields_type, fields in FIELDS_OF_TYPE.items():
         for name in fields:
             if getattr(constraint, name) is not None and constraint.type != fields_type:
@@ -59,7 +58,7 @@ def failure_limits(constraint: Any, where: str, function: str) -> dict[str, floa
             )
         out["Y"] = constraint.geometry_factor or fm.DEFAULT_GEOMETRY_FACTOR
         if constraint.crack_length is not None:
-            out["a"] = _positive_in(constraint.crack_length, "m", f"{where}.crack_length", magnitude_in)
+            out["a"] = si[f"{where}.crack_length"]
     if constraint.type == "frequency":
         if "safety_factor" in constraint.model_fields_set and constraint.safety_factor != 1:
             raise InputError(
@@ -68,33 +67,8 @@ def failure_limits(constraint: Any, where: str, function: str) -> dict[str, floa
                 "the margin in min_frequency itself",
             )
         if constraint.min_frequency is not None:
-            out["f_min"] = _positive_in(constraint.min_frequency, "Hz", f"{where}.min_frequency", _cycles)
+            out["f_min"] = si[f"{where}.min_frequency"]
     return out
-
-
-ROTATION_UNITS = ("revolution", "turn", "radian", "degree", "cycle")
-
-
-def _cycles(text: str, unit: str, where: str) -> float:
-    """A frequency in cycles per second: rpm and rad/s count turns, not radians (pint's Hz is 1/s)."""
-    import pint
-
-    from selector.inputs.units import magnitude_in, quantity
-
-    q = quantity(text, where)
-    if any(word in str(q.units) for word in ROTATION_UNITS):
-        try:
-            return float(q.to("turn/second").magnitude)
-        except pint.errors.DimensionalityError:
-            pass  # reported by magnitude_in below
-    return magnitude_in(text, unit, where)
-
-
-def _positive_in(text: str, unit: str, where: str, magnitude_in: Callable[[str, str, str], float]) -> float:
-    value = magnitude_in(text, unit, where)
-    if not (np.isfinite(value) and value > 0):
-        raise InputError(where, f"{text!r} must be a finite value above zero", "a positive quantity")
-    return float(value)
 
 
 def requirement_of(constraints: list[Any]) -> tuple[str | None, float]:

@@ -510,8 +510,9 @@ def sandwich_loads(
         values: F [N], L [m], b [m] (the width of a panel or the section's b of a beam).
         limits: constraint type → {"delta": allowed deflection [m], "SF": safety factor}.
     """
-    from selector.inputs.units import magnitude_in
+    from selector.inputs.spec_quantities import si_values
 
+    si = si_values(spec)
     part = spec.part
     missing = [name for name, symbol in (("part.force", "F"), ("part.length", "L")) if symbol not in values]
     if "b" not in values:
@@ -538,12 +539,7 @@ def sandwich_loads(
         where = f"sandwich.{name}"
         if text is None and name == "max_depth":  # one meaning: the overall depth, given in either table
             text, where = spec.section.max_depth, "section.max_depth"
-        if text is None:
-            return None
-        value = magnitude_in(text, "m", where)
-        if not (math.isfinite(value) and value > 0):
-            raise InputError(where, f"{text!r} must be above zero", "a positive length")
-        return value
+        return None if text is None else si[where]
 
     return SandwichLoads(
         case=sw.sandwich_case(support, load),

@@ -11,9 +11,10 @@ import pandas as pd
 
 from selector.errors import InputError, SelectorError
 from selector.inputs.expressions import Expression, parse
-from selector.inputs.limits import check_range, check_safety_factor
+from selector.inputs.limits import check_safety_factor
 from selector.inputs.properties import PROPERTIES
 from selector.inputs.spec import DIMENSION_FIELDS, QUANTITY_FIELDS, Spec
+from selector.inputs.spec_quantities import si_values
 from selector.mechanics.loadcases import part_kind, with_requirement
 from selector.mechanics.objectives import OBJECTIVE_UNITS
 from selector.mechanics.stress_states import stress_state
@@ -165,8 +166,7 @@ SIZABLE_SHAPES = ("generic", "rectangle", "round", "tube", "box", "i-section", "
 
 def _limits(spec: Spec) -> dict[str, dict[str, float]]:
     """Per constraint type: the allowed deflection or twist [m, rad] and the safety factor."""
-    from selector.inputs.units import magnitude_in
-
+    si = si_values(spec)
     twist_case = spec.part.function == "shaft"
     limits: dict[str, dict[str, float]] = {}
     for i, c in enumerate(spec.constraint):
@@ -182,20 +182,10 @@ def _limits(spec: Spec) -> dict[str, dict[str, float]]:
                     f"{allowed} instead" if allowed else "no deflection or twist limit on this constraint",
                 )
         if c.max_deflection is not None:
-            lim["delta"] = check_range(
-                magnitude_in(c.max_deflection, "m", f"{where}.max_deflection"),
-                "m",
-                f"{where}.max_deflection",
-                c.max_deflection,
-            )
+            lim["delta"] = si[f"{where}.max_deflection"]
         if c.max_twist is not None:
-            lim["theta"] = check_range(
-                magnitude_in(c.max_twist, "radian", f"{where}.max_twist"),
-                "radian",
-                f"{where}.max_twist",
-                c.max_twist,
-            )
-        limits[c.type] = lim | fl.failure_limits(c, where, spec.part.function)
+            lim["theta"] = si[f"{where}.max_twist"]
+        limits[c.type] = lim | fl.failure_limits(c, where, spec.part.function, si)
     return limits
 
 
@@ -239,28 +229,13 @@ def _check_section(fn: str, shape: str, free: str) -> None:
 
 def design_of(spec: Spec, shape: str) -> Design:
     """Loads, limits and section dimensions of a spec, in SI; refuses what cannot be sized."""
-    from selector.inputs.units import magnitude_in
-
-    values: dict[str, float] = {}
-    for name, unit in QUANTITY_FIELDS.items():
-        text = getattr(spec.part, name)
-        if text is not None:
-            where = f"part.{name}"
-            values[SYMBOL_OF_FIELD[name]] = check_range(magnitude_in(text, unit, where), unit, where, text)
-    dims = {
-        k: check_range(magnitude_in(v, "m", f"section.{k}"), "m", f"section.{k}", v)
-        for k, v in spec.section.dims.items()
-    }
+    si = si_values(spec)
+    values = {SYMBOL_OF_FIELD[name]: si[f"part.{name}"] for name in QUANTITY_FIELDS if f"part.{name}" in si}
+    dims = {k: si[f"section.{k}"] for k in spec.section.dims}
     limits = _limits(spec)
     if spec.section.min_wall is not None:
-        text = spec.section.min_wall
-        where = "section.min_wall"
-        values["t_min"] = check_range(magnitude_in(text, "m", where), "m", where, text)
-    bounds = {
-        name: check_range(magnitude_in(text, "m", f"section.{name}"), "m", f"section.{name}", text)
-        for name in BOUND_FIELDS
-        if (text := getattr(spec.section, name)) is not None
-    }
+        values["t_min"] = si["section.min_wall"]
+    bounds = {name: si[f"section.{name}"] for name in BOUND_FIELDS if getattr(spec.section, name) is not None}
     check_bounds(spec.part.function, shape, bounds)
     if spec.part.function in IMPLICIT_CONSTRAINTS:  # checked on every part, with the SF of ``sf_from``
         implicit, sf_from = IMPLICIT_CONSTRAINTS[spec.part.function]
@@ -274,7 +249,7 @@ def design_of(spec: Spec, shape: str) -> Design:
         width = values.get("b", dims.get("b"))
         dims = {"b": width} if width else {}
         if spec.section.t is not None:
-            dims["h"] = magnitude_in(spec.section.t, "m", "section.t")
+            dims["h"] = si["section.t"]
     elif kind.own_dimension is not None:
         if free == "none" and fn == "spring":
             raise InputError(
@@ -450,7 +425,9 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
             "spec: constraint", "the spec has no [[constraint]] and no index", "at least one constraint table"
         )
     for i, c in enumerate(spec.constraint):
-        fl.failure_limits(c, f"constraint[{i}]", spec.part.function)  # refuse misplaced fields first
+        fl.failure_limits(
+            c, f"constraint[{i}]", spec.part.function, si_values(spec)
+        )  # misplaced fields first
     criterion, load_ratio = fl.requirement_of(spec.constraint)
     case = with_requirement(case_for(spec), criterion, load_ratio)
     free = spec.section.free

@@ -147,8 +147,8 @@ def test_json_uses_the_type_names():
     [
         ({"type": "fatigue", "crack_length": "1 mm"}, "spec: constraint[0].crack_length", "does not apply"),
         ({"type": "fracture", "criterion": "leak-before-break"}, "spec: constraint[0].criterion", "cylinder"),
-        ({"type": "frequency", "min_frequency": "3 mm"}, "constraint[0].min_frequency", "a frequency (Hz"),
-        ({"type": "frequency", "min_frequency": "-3 Hz"}, "constraint[0].min_frequency", "above zero"),
+        ({"type": "frequency", "min_frequency": "3 mm"}, "spec: constraint[0].min_frequency", "(Hz"),
+        ({"type": "frequency", "min_frequency": "-3 Hz"}, "spec: constraint[0].min_frequency", "above zero"),
         ({"type": "frequency", "safety_factor": 2}, "constraint[0].safety_factor", "no safety factor"),
     ],
 )

@@ -116,7 +116,7 @@ def test_conservative_sizing_is_heavier():
         ({"section": {"shape": "rectangle", "free": "faces-and-core"}}, "section.shape"),
         ({"section": {"shape": "sandwich", "free": "faces-and-core", "t": "5 mm"}}, "section.t"),
         ({"sandwich": {"faces": ["alumnium"]}}, "sandwich.faces[0]"),
-        ({"sandwich": {"min_core": "-2 mm"}}, "sandwich.min_core"),
+        ({"sandwich": {"min_core": "-2 mm"}}, "spec: sandwich.min_core"),  # refused as the spec loads
     ],
 )
 def test_bad_sandwich_specs_name_the_field(changes, where):
