@@ -34,6 +34,9 @@ from selector.pipeline.derive import Derivation
 MIN_PRACTICAL_WALL = 0.5e-3
 """Walls thinner than this [m] get a warning (common practice for formed or cast parts, no source)."""
 THIN_WALL_RATIO = 50.0
+VESSEL_THIN_WALL_RATIO = 10.0
+"""r/t below which a vessel's membrane (thin-wall) stresses understate the peak stress at the
+bore (common practice, no source; Lamé's thick-cylinder relations apply)."""
 """d/t (or b/t) above which local buckling of a wall should be checked (common practice, no source)."""
 
 DEFAULT_DIMS: dict[str, dict[str, float]] = {
@@ -408,6 +411,12 @@ def _one_part(
     outer = dims.get("d") or max(dims.get("b", 0.0), dims.get("h", 0.0)) or dims.get("r", 0.0) * 2
     if wall and outer and outer / wall > THIN_WALL_RATIO:
         warnings.append(f"slender wall (ratio {outer / wall:.0f}): check local buckling")
+    radius, t = values.get("r"), dims.get("t")
+    if case.kind.vessel and radius and t and radius / t < VESSEL_THIN_WALL_RATIO:
+        warnings.append(
+            f"thick wall (r/t = {radius / t:.2g}, below {VESSEL_THIN_WALL_RATIO:g}): the thin-wall "
+            "stress p·r/t understates the stress at the bore; check with Lamé's thick-wall relations"
+        )
     return {
         "feasible": feasible,
         "dimensions": dims,
