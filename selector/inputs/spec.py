@@ -17,6 +17,7 @@ from selector.errors import InputError, SpecError
 from selector.inputs.limits import check_range, check_toml_text
 from selector.inputs.properties import FAMILIES, PROPERTIES, RATINGS
 from selector.inputs.spec_keys import key_problems
+from selector.inputs.spec_quantities import DIMENSION_FIELDS, UNIT_OF_KEY, quantity_problems
 from selector.mechanics.failure_modes import CRITERIA
 from selector.mechanics.loadcases import CONSTRAINTS, FREE_VARIABLES, FUNCTIONS
 from selector.mechanics.objectives import OBJECTIVES
@@ -25,20 +26,7 @@ from selector.suggest import did_you_mean
 EXAMPLES = Path(__file__).resolve().parents[1] / "examples"  # the bundled example specs
 DEMO_SPEC = "camera-dolly-boom.toml"
 
-QUANTITY_FIELDS: dict[str, str] = {
-    "length": "m",
-    "force": "N",
-    "torque": "N*m",
-    "pressure": "Pa",
-    "energy": "J",
-    "width": "m",
-    "radius": "m",
-}
-DIMENSION_FIELDS = ("b", "h", "d", "t", "tf", "tw")
-QUANTITY_KEYS = frozenset(
-    {*QUANTITY_FIELDS, *DIMENSION_FIELDS, "min_wall", "max_depth", "max_width", "max_diameter"}
-    | {"max_deflection", "max_twist", "crack_length", "min_frequency", "min_face", "min_core"}
-)
+QUANTITY_KEYS = frozenset(UNIT_OF_KEY)
 """Keys whose value is a quantity: text with a number and its unit."""
 
 
@@ -251,8 +239,6 @@ def spec_from_dict(data: dict[str, Any], source: str = "spec") -> Spec:
         problems = [_problem(e, source) for e in exc.errors()]
         seen = {p.location for p in problems}
         raise SpecError(problems + [p for p in unread if p.location not in seen]) from None
-    from selector.inputs.spec_quantities import quantity_problems
-
     problems = [*unread, *quantity_problems(spec, source)]
     if problems:
         raise SpecError(problems)

@@ -20,8 +20,7 @@ from selector.inputs.units import magnitude_in, quantity
 if TYPE_CHECKING:
     from selector.inputs.spec import Spec
 
-LENGTH_KEYS = ("b", "h", "d", "t", "tf", "tw", "min_wall", "max_depth", "max_width", "max_diameter")
-UNIT_OF_KEY: dict[str, str] = {
+QUANTITY_FIELDS: dict[str, str] = {
     "length": "m",
     "force": "N",
     "torque": "N*m",
@@ -29,7 +28,13 @@ UNIT_OF_KEY: dict[str, str] = {
     "energy": "J",
     "width": "m",
     "radius": "m",
-    **{key: "m" for key in LENGTH_KEYS},
+}
+"""The ``[part]`` quantities and their SI units."""
+DIMENSION_FIELDS = ("b", "h", "d", "t", "tf", "tw")
+"""The ``[section]`` reference dimensions."""
+UNIT_OF_KEY: dict[str, str] = {
+    **QUANTITY_FIELDS,
+    **{key: "m" for key in (*DIMENSION_FIELDS, "min_wall", "max_depth", "max_width", "max_diameter")},
     "min_face": "m",
     "min_core": "m",
     "max_deflection": "m",

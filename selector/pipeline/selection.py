@@ -13,8 +13,8 @@ from selector.errors import InputError, SelectorError
 from selector.inputs.expressions import Expression, parse
 from selector.inputs.limits import check_safety_factor
 from selector.inputs.properties import PROPERTIES
-from selector.inputs.spec import DIMENSION_FIELDS, QUANTITY_FIELDS, Spec
-from selector.inputs.spec_quantities import si_values
+from selector.inputs.spec import Spec
+from selector.inputs.spec_quantities import DIMENSION_FIELDS, QUANTITY_FIELDS, si_values
 from selector.mechanics.loadcases import part_kind, with_requirement
 from selector.mechanics.objectives import OBJECTIVE_UNITS
 from selector.mechanics.stress_states import stress_state

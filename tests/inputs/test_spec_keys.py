@@ -15,8 +15,9 @@ from hypothesis import strategies as st
 
 from selector.errors import InputError, SpecError
 from selector.inputs.materials import check_materials_file, load_materials
-from selector.inputs.spec import QUANTITY_FIELDS, spec_from_dict
+from selector.inputs.spec import spec_from_dict
 from selector.inputs.spec_keys import PART_KEYS
+from selector.inputs.spec_quantities import QUANTITY_FIELDS
 from selector.mechanics.loadcases import FUNCTIONS, load_case
 from selector.pipeline.screen import parse_limit
 from selector.pipeline.selection import SYMBOL_OF_FIELD
