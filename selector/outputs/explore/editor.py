@@ -9,7 +9,7 @@ every control for a spec.
 from __future__ import annotations
 
 import math
-from collections.abc import Mapping
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 from typing import Any
 
@@ -146,6 +146,21 @@ def _family_and_class_options(start: Start) -> list[dict[str, str]]:
     return [{"label": f"family: {f}", "value": f} for f in FAMILIES] + class_options(start)
 
 
+def _pair_picker(label: str, key: str, options: list[dict[str, str]], chosen: Sequence[str]) -> Any:
+    """The sandwich's faces or cores: families and classes, the defaults named when none is chosen."""
+    return field_box(
+        label,
+        dcc.Dropdown(
+            id=key,
+            options=options,
+            value=list(chosen),
+            multi=True,
+            placeholder=f"default: {', '.join(SANDWICH_DEFAULTS[key])}",
+        ),
+        key,
+    )
+
+
 def part_section(start: Start, c: Controls, form: FormState) -> Any:
     texts = dict(c.fields)
     fields = [spec_field(f, texts.get(f.path, ""), form) for f in PART_FIELDS]
@@ -166,30 +181,11 @@ def section_section(start: Start, c: Controls, form: FormState) -> Any:
         id="row-construction",
         style=SHOWN if form.sandwich_allowed else HIDDEN,
     )
+    options = _family_and_class_options(start)
     sandwich = html.Div(
         [
-            field_box(
-                "Faces from",
-                dcc.Dropdown(
-                    id="faces",
-                    options=_family_and_class_options(start),
-                    value=list(c.faces),
-                    multi=True,
-                    placeholder=f"default: {', '.join(SANDWICH_DEFAULTS['faces'])}",
-                ),
-                "faces",
-            ),
-            field_box(
-                "Cores from",
-                dcc.Dropdown(
-                    id="cores",
-                    options=_family_and_class_options(start),
-                    value=list(c.cores),
-                    multi=True,
-                    placeholder=f"default: {', '.join(SANDWICH_DEFAULTS['cores'])}",
-                ),
-                "cores",
-            ),
+            _pair_picker("Faces from", "faces", options, c.faces),
+            _pair_picker("Cores from", "cores", options, c.cores),
         ],
         id="sandwich-block",
         style=SHOWN if form.sandwich else HIDDEN,
