@@ -30,9 +30,10 @@ FUNCTION_ASSUMPTIONS: dict[str, tuple[str, ...]] = {
         "Euler–Bernoulli bending (span above about 10 thicknesses); the panel's own weight is left out",
     ),
     "column": (
-        "Euler buckling of a straight, centrally loaded elastic column: initial crookedness and "
-        "inelastic buckling are not modelled, so a stocky column (Euler stress above about σ_y/2) "
-        "needs a check against a column curve",
+        "Euler buckling of a straight, centrally loaded column; where the Euler stress is above "
+        "σ_c/2 (a stocky column) it is sized on the Johnson parabola σ_cr = σ_c − σ_c²/(4σ_E) "
+        "instead. Initial crookedness and residual stresses are not modelled: check the chosen "
+        "section against the column curve of the design code",
         "the column's own weight is left out of the load",
     ),
     "shaft": (

@@ -23,7 +23,9 @@ import pandas as pd
 
 from selector.errors import InputError
 from selector.inputs.properties import DERIVED_PROPERTIES, HIGH_IS_UNFAVOURABLE, PROPERTIES, property_of
+from selector.inputs.units import format_number
 from selector.mechanics import sections as sec
+from selector.mechanics.column_buckling import euler_overestimate, is_stocky
 from selector.mechanics.loadcases import LoadCase
 from selector.mechanics.objectives import OBJECTIVE_FACTORS
 from selector.mechanics.product_forms import minimum_walls
@@ -34,10 +36,10 @@ from selector.pipeline.derive import Derivation
 MIN_PRACTICAL_WALL = 0.5e-3
 """Walls thinner than this [m] get a warning (common practice for formed or cast parts, no source)."""
 THIN_WALL_RATIO = 50.0
+"""d/t (or b/t) above which local buckling of a wall should be checked (common practice, no source)."""
 VESSEL_THIN_WALL_RATIO = 10.0
 """r/t below which a vessel's membrane (thin-wall) stresses understate the peak stress at the
 bore (common practice, no source; Lamé's thick-cylinder relations apply)."""
-"""d/t (or b/t) above which local buckling of a wall should be checked (common practice, no source)."""
 
 DEFAULT_DIMS: dict[str, dict[str, float]] = {
     # Reference proportions when the spec gives none (only ratios matter when the scale is free).
@@ -382,13 +384,19 @@ def _one_part(
         )
         dims = {k: v * grow for k, v in dims.items()}
         geometry = _geometry_values(design, dims, case) or geometry
+    johnson = 1.0
+    if case.function == "column" and any(d.constraint == "buckling" for d in derivations):
+        dims, geometry, johnson, note = _stocky_column(design, dims, geometry, case, props)
+        warnings += [note] if note else []
     values = dict(design.values) | geometry | props
     util: dict[str, float] = {}
     for d in derivations:
         v = values | design.limits.get(d.constraint, {})
         util[d.constraint] = float(case.utilisation[d.constraint].evaluate(v))
+    if "buckling" in util:
+        util["buckling"] *= johnson  # Euler's load over the critical load (1 unless stocky)
     governing = max(util, key=util.__getitem__)
-    feasible = True
+    feasible = not (design.free != "none" and johnson > 1 and util["buckling"] > 1 + CHECK_TOLERANCE)
     if design.free == "none" and util[governing] > 1 + CHECK_TOLERANCE:
         feasible = False
         warnings.append(f"the given part fails {governing} (utilisation {util[governing]:.2f})")
@@ -432,6 +440,73 @@ def _one_part(
         "governing": governing,
         "size_warnings": warnings,
     }
+
+
+def _stocky_column(
+    design: Design,
+    dims: dict[str, float],
+    geometry: dict[str, float],
+    case: LoadCase,
+    props: Mapping[str, float],
+) -> tuple[dict[str, float], dict[str, float], float, str | None]:
+    """A column in the inelastic range, grown until the Johnson parabola carries its load.
+
+    Returns the dimensions (grown where the size is free), their section quantities, how
+    many times Euler's load overestimates the critical load at them (1 when slender), and
+    a note for the part (None when slender).
+    """
+    strength = float(props.get("sigma_c", math.nan))
+
+    def check(g: float) -> tuple[dict[str, float], dict[str, float], float, float] | None:
+        """(dims, section, Johnson utilisation, Euler stress [Pa]) at the free size ×g."""
+        trial = _grown(design, dims, g)
+        geo = _geometry_values(design, trial, case)
+        if geo is None or not geo.get("A"):
+            return None
+        v = dict(design.values) | geo | dict(props) | design.limits.get("buckling", {})
+        euler_stress = float(case.responses["buckling_load"].evaluate(v)) / geo["A"]
+        euler_util = float(case.utilisation["buckling"].evaluate(v))
+        return trial, geo, euler_util * euler_overestimate(euler_stress, strength), euler_stress
+
+    first = check(1.0)
+    if first is None or not math.isfinite(strength) or strength <= 0 or not is_stocky(first[3], strength):
+        return dims, geometry, 1.0, None
+    stress = (
+        f"the Euler stress {format_number(first[3] / 1e6)} MPa is above "
+        f"σ_c/2 = {format_number(strength / 2e6)} MPa"
+    )
+    if design.free == "none" or first[2] <= 1 + CHECK_TOLERANCE:
+        note = f"stocky column: {stress}, so buckling is checked on the Johnson parabola"
+        return dims, geometry, euler_overestimate(first[3], strength), note
+    hi = 10.0
+    while hi < 1e3 and not _carries(check(hi)):
+        hi *= 10.0
+    grown = check(float(bisect_log(lambda g: _carries(check(g)), 1.0, hi, 60)[1]))
+    if grown is None or not _carries(grown):
+        note = f"stocky column: {stress}, and no size of this shape carries the load on the Johnson parabola"
+        return dims, geometry, euler_overestimate(first[3], strength), note
+    trial, geo, _util, euler_stress = grown
+    key = FREE_DIMENSION.get(design.free) or next(iter(trial))
+    growth = trial[key] / dims[key]
+    note = (
+        f"stocky column: {stress}, so it is sized on the Johnson parabola "
+        f"σ_cr = σ_c − σ_c²/(4σ_E), ×{growth:.3g} the Euler size"
+    )
+    return trial, geo, euler_overestimate(euler_stress, strength), note
+
+
+def _carries(checked: tuple[dict[str, float], dict[str, float], float, float] | None) -> bool:
+    return checked is not None and checked[2] <= 1 + CHECK_TOLERANCE
+
+
+def _grown(design: Design, dims: dict[str, float], g: float) -> dict[str, float]:
+    """The dimensions with the free size ×g (every dimension when the scale is free)."""
+    if design.free == "scale":
+        return {k: v * g for k, v in dims.items()}
+    if design.free in FREE_DIMENSION:
+        key = FREE_DIMENSION[design.free]
+        return dict(dims) | {key: dims[key] * g}
+    return dict(dims)
 
 
 def _shape_warnings(design: Design, dims: dict[str, float], case: LoadCase, family: str) -> list[str]:
