@@ -52,6 +52,14 @@ CORE_ONLY_CLASSES = frozenset({"al-honeycomb", "aramid-honeycomb"})
 """Classes made only as sandwich cores: never sized as a solid part (common practice, no source)."""
 CORE_ONLY_REASON = "made only as a sandwich core (a honeycomb), not as a solid part"
 
+WIRE_CLASSES = frozenset({"spring-steel-wire"})
+"""Classes made only as drawn round wire: ranked as a spring or a solid round bar, never as a
+section, sheet or plate (common practice, no source)."""
+WIRE_REASON = "made only as round wire, not as a section, sheet or plate"
+WIRE_MAX_DIAMETER = 10e-3
+"""Largest wire diameter [m] the class's data cover (its data note: round wire 1 to 10 mm; the
+strength of EN 10270-1 wire falls as the diameter grows)."""
+
 LAMINATE_CLASSES = frozenset({"cfrp-qi", "gfrp-qi", "afrp-qi", "smc", "nfrp"})
 """Laminates and moulding compounds: made as plate, shell and tube from plies or sheet, not as a
 solid round bar (common practice, no source; pultruded rods are unidirectional)."""

@@ -3,7 +3,8 @@
 A class whose data hold along one axis only (``directions = "axial"``:
 unidirectional composites, woods along or across the grain) is not ranked for a
 biaxial or shear stress state. A class made only as a sandwich core is not sized as
-a solid part, and a laminate not as a solid round bar. Each reason says why.
+a solid part, a laminate not as a solid round bar, and a class made only as wire not
+as a section, sheet or plate. Each reason says why.
 """
 
 from __future__ import annotations
@@ -17,6 +18,8 @@ from selector.mechanics.product_forms import (
     LAMINATE_CLASSES,
     LAMINATE_REASON,
     SOLID_BAR_SHAPES,
+    WIRE_CLASSES,
+    WIRE_REASON,
 )
 from selector.mechanics.stress_states import DIRECTIONS, UNIAXIAL, one_axis_reason
 from selector.pipeline.screen import REJECTED
@@ -50,10 +53,14 @@ SECTION_FUNCTIONS = ("tie", "beam", "column", "shaft")
 
 def reject_for_product_form(table: pd.DataFrame, function: str, shape: str) -> pd.DataFrame:
     """A copy of ``table`` without the classes that are not made in this part's form:
-    sandwich-core-only classes for any solid part, laminates for a solid round bar."""
+    sandwich-core-only classes for any solid part, laminates for a solid round bar, wire for
+    anything but a spring, a solid round bar or a tie of any section."""
     out = _reject(table, table["id"].isin(CORE_ONLY_CLASSES), CORE_ONLY_REASON)
-    if function in SECTION_FUNCTIONS and shape in SOLID_BAR_SHAPES:
+    round_bar = function in SECTION_FUNCTIONS and shape in SOLID_BAR_SHAPES
+    if round_bar:
         out = _reject(out, out["id"].isin(LAMINATE_CLASSES), LAMINATE_REASON)
+    if not round_bar and function != "spring" and not (function == "tie" and shape == "generic"):
+        out = _reject(out, out["id"].isin(WIRE_CLASSES), WIRE_REASON)
     return out
 
 

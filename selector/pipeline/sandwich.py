@@ -24,7 +24,7 @@ from selector.inputs.properties import FAMILIES, PROPERTIES
 from selector.inputs.spec import Spec
 from selector.mechanics import sandwich as sw
 from selector.mechanics.objectives import OBJECTIVE_FACTORS, OBJECTIVE_UNITS
-from selector.mechanics.product_forms import CLASS_MIN_WALL
+from selector.mechanics.product_forms import CLASS_MIN_WALL, WIRE_CLASSES
 from selector.mechanics.stress_states import UNIAXIAL, one_axis_reason
 from selector.numeric import bisect_log
 from selector.pipeline.applicability import one_axis_mask
@@ -47,8 +47,6 @@ MIN_FACE_CLASS: dict[str, float] = {
     # (common practice, no source)
     "al-sic-mmc": 0.5e-3,
 }
-NOT_SHEET = frozenset({"spring-steel-wire"})
-"""Classes made only as round wire: no face is cut from them (common practice, no source)."""
 MIN_CORE = 5e-3
 """Thinnest core [m] commonly made and bonded (sheet foam, honeycomb, end-grain balsa).
 
@@ -338,7 +336,7 @@ def size_pairs(
     core_rows = _members(alive, cores_chosen, DEFAULT_CORE_FAMILIES, "sandwich.cores").reset_index(drop=True)
     fp = face_properties(face_rows, loads.objective, conservative)
     cp = core_properties(core_rows, loads.objective, conservative)
-    sheet = ~face_rows["id"].isin(NOT_SHEET).to_numpy()
+    sheet = ~face_rows["id"].isin(WIRE_CLASSES).to_numpy()
     # a panel's faces carry biaxial stress, as a solid panel does: one-axis data do not cover it
     biaxial = face_state != UNIAXIAL
     any_axis = ~one_axis_mask(face_rows).to_numpy() if biaxial else np.ones(len(face_rows), dtype=bool)

@@ -28,7 +28,7 @@ from selector.mechanics import sections as sec
 from selector.mechanics.column_buckling import euler_overestimate, is_stocky
 from selector.mechanics.loadcases import LoadCase
 from selector.mechanics.objectives import OBJECTIVE_FACTORS
-from selector.mechanics.product_forms import minimum_walls
+from selector.mechanics.product_forms import WIRE_CLASSES, WIRE_MAX_DIAMETER, minimum_walls
 from selector.numeric import bisect_log
 from selector.pipeline import columns
 from selector.pipeline.derive import Derivation
@@ -397,6 +397,12 @@ def _one_part(
         util["buckling"] *= johnson  # Euler's load over the critical load (1 unless stocky)
     governing = max(util, key=util.__getitem__)
     feasible = not (design.free != "none" and johnson > 1 and util["buckling"] > 1 + CHECK_TOLERANCE)
+    if row["id"] in WIRE_CLASSES and dims.get("d", 0.0) > WIRE_MAX_DIAMETER:
+        feasible = False
+        warnings.append(
+            f"needs d = {format_number(dims['d'] * 1e3)} mm, thicker than the "
+            f"{format_number(WIRE_MAX_DIAMETER * 1e3)} mm its wire data cover"
+        )
     if design.free == "none" and util[governing] > 1 + CHECK_TOLERANCE:
         feasible = False
         warnings.append(f"the given part fails {governing} (utilisation {util[governing]:.2f})")

@@ -99,6 +99,43 @@ def test_a_laminate_is_not_made_as_a_solid_round_bar(shape, rejected):
         assert any("not as a solid round bar" in r for r in rows.at["cfrp-qi", "reasons"])
 
 
+@pytest.mark.parametrize(
+    ("function", "shape", "rejected"),
+    [
+        ("shaft", "round", False),
+        ("tie", "generic", False),
+        ("beam", "tube", True),
+        ("beam", "rectangle", True),
+    ],
+)
+def test_wire_is_ranked_only_as_a_round_bar(function, shape, rejected):
+    # drawn wire is round: no tube, plate or rolled section is made from it (common practice,
+    # no source); strong enough that the round bar is thinner than the 10 mm its data cover
+    table = make_table([STEELISH, {**STEELISH, "id": "spring-steel-wire", "sigma_y": (1500, 1500)}])
+    rows = select(_solid(function, shape), table).table.set_index("id")
+    assert (rows.at["spring-steel-wire", "status"] == "rejected") is rejected
+    if rejected:
+        assert any("only as round wire" in r for r in rows.at["spring-steel-wire", "reasons"])
+
+
+def test_wire_thicker_than_its_data_cover_is_refused():
+    # A 10 kN tie of σ_y = 250 MPa needs A = F/σ_y = 40 mm², d = (4A/π)^½ = 7.14 mm (within the
+    # 1–10 mm the class's data note covers); 40 kN needs d = 14.3 mm, beyond it.
+    wire = {**STEELISH, "id": "spring-steel-wire"}
+
+    def tie(force: str):
+        part = {"function": "tie", "length": "1 m", "force": force}
+        spec = spec_from_dict(
+            {"part": part, "section": {"shape": "round"}, "constraint": [{"type": "strength"}]}
+        )
+        return select(spec, make_table([wire])).table.set_index("id").loc["spring-steel-wire"]
+
+    assert tie("10 kN")["dimensions"]["d"] == pytest.approx(7.136e-3, rel=1e-3)
+    thick = tie("40 kN")
+    assert thick["status"] == "rejected"
+    assert any("thicker than the 10 mm its wire data cover" in r for r in thick["reasons"])
+
+
 def test_a_panel_sandwich_leaves_out_one_axis_faces():
     # a panel's faces carry stress both ways; unidirectional data hold along the fibres only
     ud = {**STEELISH, "id": "ud-face", "family": "composite", "directions": "axial"}
