@@ -2,13 +2,15 @@
 
 Computation and the table keep stored units (GPa, MPa, kg/m³ ...). People read an
 index the way published property charts state it: density in Mg/m³ inside the index
-unit (E^(1/2)/ρ in GPa^(1/2)/(Mg/m³), about 3 for aluminium alloys), and an
-energy-type index, a strength squared over a modulus, as energy stored per kilogram or
-per cubic metre (J, kJ or MJ, whichever puts the typical value between 0.1 and 1000).
-A property range is shown in a unit that suits its size: a rubber's modulus in MPa,
-not 0.0007 GPa. ``--units us`` uses US customary units for all of these; embodied
-carbon stays in kg CO2e per kg, a unit used the world over.
-"""
+unit (E^(1/2)/ρ in GPa^(1/2)/(Mg/m³), about 3 for aluminium alloys), powers of one
+unit added and cancelled (K_IC²/σ_y in MPa·m), and an energy-type index, a strength
+squared over a modulus, as elastic energy stored per what the design pays in: per
+cubic metre, kilogram, US dollar, kg CO2e or MJ embodied (kJ/USD for a spring bought
+on price). Of the prefixes an index may take, the one chosen reads the leaders and the
+median of the shortlist between 0.1 and 1000. A property range is shown in a unit that
+suits its size: a rubber's modulus in MPa, not 0.0007 GPa. ``--units us`` uses US
+customary units for all of these (in·lbf, ft·lbf, kip·in or kip·ft for energies);
+embodied carbon stays in kg CO2e per kg, a unit used the world over."""
 
 from __future__ import annotations
 
@@ -96,6 +98,37 @@ def range_unit(symbol: str, high: float, units: str = "si") -> Shown:
     return Shown(*next((s for s in smaller if high * s[1] >= READABLE[0]), smaller[-1]))
 
 
+# Pressure atoms an index unit may re-prefix, smallest first (label, size in the smallest).
+_PRESSURES = {
+    "si": (("kPa", 1.0), ("MPa", 1e3), ("GPa", 1e6)),
+    "us": (("psi", 1.0), ("ksi", 1e3), ("Msi", 1e6)),
+}
+# Energies an energy-type index may read in, smallest first (label, J), and the one preferred.
+_ENERGIES = {
+    "si": (("J", 1.0), ("kJ", 1e3), ("MJ", 1e6), ("GJ", 1e9)),
+    "us": (("in·lbf", LBF_IN), ("ft·lbf", 12 * LBF_IN), ("kip·in", 1e3 * LBF_IN), ("kip·ft", 12e3 * LBF_IN)),
+}
+_PREFERRED_ENERGY = {"si": "kJ", "us": "ft·lbf"}
+# What an energy-type index stores its energy per: (label, size in SI) in each system.
+_PER: dict[str, dict[str, tuple[str, float]]] = {
+    "volume": {"si": ("m³", 1.0), "us": ("in³", INCH**3)},
+    "area": {"si": ("m²", 1.0), "us": ("in²", INCH**2)},
+    "mass": {"si": ("kg", 1.0), "us": ("lb", POUND)},
+    "cost": {"si": ("USD", 1.0), "us": ("USD", 1.0)},
+    "co2": {"si": ("kg CO2e", 1.0), "us": ("kg CO2e", 1.0)},
+    "energy": {"si": ("MJ", 1e6), "us": ("MJ", 1e6)},
+}
+_PER_DENSITY = {(): "mass", ("price",): "cost", ("co2",): "co2", ("energy",): "energy"}
+"""The energy kind of a strength squared over a modulus, per density and per what else (price ...)."""
+
+
+def _atoms(label: str) -> list[tuple[str, float]]:
+    """A property's unit label as atoms with powers: "MPa·m½" gives MPa¹·m^½; a quotient stays whole."""
+    if "/" in label or "·" not in label:
+        return [(label, 1.0)]
+    return [(a[:-1], 0.5) if a.endswith("½") else (a, 1.0) for a in label.split("·")]
+
+
 def _index_part(symbol: str, units: str) -> tuple[str, float]:
     """(label, factor from stored) of one property inside an index unit."""
     if symbol == "rho":
@@ -108,43 +141,156 @@ def _index_part(symbol: str, units: str) -> tuple[str, float]:
     return shown.label, shown.factor
 
 
-def _power(p: float) -> str:
-    for text, value in (("1/2", 0.5), ("1/3", 1 / 3), ("2/3", 2 / 3), ("1/4", 0.25), ("3/4", 0.75)):
+_FRACTIONS = (("1/2", 0.5), ("1/3", 1 / 3), ("2/3", 2 / 3), ("1/4", 0.25), ("3/4", 0.75), ("3/2", 1.5))
+
+
+def _power(atom: str, p: float) -> str:
+    """A power as written after an atom: m½ for a root of a length (as in MPa·m½), ^(1/3), ^2."""
+    if atom in ("m", "in") and math.isclose(abs(p), 0.5):
+        return "½"
+    for text, value in _FRACTIONS:
         if math.isclose(abs(p), value, rel_tol=1e-9):
             return f"^({text})"
     return "" if math.isclose(abs(p), 1.0) else f"^{abs(p):.3g}"
 
 
-def _join(parts: Sequence[tuple[str, float]]) -> str:
+def _join(atoms: Mapping[str, float]) -> str:
+    """An index unit from its atoms and their powers: numerator, then the denominator after one slash."""
+
     def bracket(label: str) -> str:
         return f"({label})" if any(ch in label for ch in "/· ") else label
 
-    up = [bracket(label) + _power(p) for label, p in parts if p > 0]
-    down = [bracket(label) + _power(p) for label, p in parts if p < 0]
+    up = [bracket(a) + _power(a, p) for a, p in atoms.items() if p > 0]
+    down = [bracket(a) + _power(a, p) for a, p in atoms.items() if p < 0]
+    if not up and not down:
+        return "–"
     top = "·".join(up) or "1"
     if not down:
         return top
     return f"{top}/" + (down[0] if len(down) == 1 else "(" + "·".join(down) + ")")
 
 
+def _simplified(exponents: Mapping[str, float], units: str) -> tuple[dict[str, float], float]:
+    """The atoms of an index unit with the powers of each added and those that cancel gone.
+
+    Only the same atom cancels: MPa over GPa stays MPa/GPa (σ_y/E reads as a strain in
+    thousandths, about 1 for a steel), since folding the two would hide a factor of 1000
+    in a bare number. Quotients such as Mg/m³ and USD/kg are atoms of their own, as
+    published charts write them, so E^(1/2)/(C_m·ρ) keeps (USD/kg)·(Mg/m³).
+    """
+    atoms: dict[str, float] = {}
+    factor = 1.0
+    for symbol, p in exponents.items():
+        label, f = _index_part(symbol, units)
+        factor *= f**p
+        for atom, q in _atoms(label):
+            atoms[atom] = atoms.get(atom, 0.0) + p * q
+    return {a: p for a, p in atoms.items() if not math.isclose(p, 0.0, abs_tol=1e-9)}, factor
+
+
 def _energy_kind(exponents: Mapping[str, float]) -> str | None:
-    """ "volume" or "mass" for a strength squared over a modulus (per density), else None."""
+    """What an energy-type index stores energy per: "volume", "area", "mass", "cost", "co2" or "energy".
+
+    Energy-type: a modulus below, strengths and K_IC above, to one power of stress in all:
+    σ_y²/E (J/m³), K_IC²/E (toughness, J/m²), and σ_y²/E per density (J/kg), per density
+    and price (J/USD), embodied carbon (J/kg CO2e) or embodied energy (J/MJ). None otherwise.
+    """
     strengths = sum(p for s, p in exponents.items() if s in STRENGTHS)
     moduli = sum(p for s, p in exponents.items() if s in MODULI)
-    rest = {s: p for s, p in exponents.items() if s not in STRENGTHS and s not in MODULI}
-    if strengths <= 0 or moduli >= 0 or not math.isclose(strengths + moduli, 1.0):
+    toughness = exponents.get("K_IC", 0.0)
+    rest = {s: p for s, p in exponents.items() if s not in STRENGTHS and s not in MODULI and s != "K_IC"}
+    if moduli >= 0 or strengths < 0 or toughness < 0 or strengths + toughness <= 0:
+        return None
+    if not math.isclose(strengths + moduli + toughness, 1.0):
+        return None
+    if math.isclose(toughness, 2.0):
+        return "area" if not rest else None
+    if not math.isclose(toughness, 0.0):
         return None
     if not rest:
         return "volume"
-    if set(rest) == {"rho"} and math.isclose(rest["rho"], -1.0):
-        return "mass"
-    return None
+    if not math.isclose(rest.pop("rho", 0.0), -1.0) or any(not math.isclose(p, -1.0) for p in rest.values()):
+        return None
+    return _PER_DENSITY.get(tuple(sorted(rest)))
 
 
-def _typical(values: Sequence[float] | np.ndarray | None) -> float:
+@dataclass(frozen=True)
+class _Choice:
+    shown: Shown
+    steps: int
+    """How far the unit is from the preferred one (prefix steps)."""
+
+
+def _energy_choices(kind: str, exponents: Mapping[str, float], units: str) -> list[_Choice]:
+    """The energy units an energy-type index may read in, each with its steps from the preferred one."""
+    si = math.prod(property_of(s).si_factor ** p for s, p in exponents.items())
+    per, per_size = _PER[kind][units]
+    energies = _ENERGIES[units]
+    preferred = _PREFERRED_ENERGY[units]
+    if units == "us" and kind in ("volume", "area"):  # per in³ or in²: inch energies (psi, ksi)
+        energies, preferred = tuple(e for e in energies if "in" in e[0].split("·")), "in·lbf"
+    at = [e[0] for e in energies].index(preferred)
+    return [
+        _Choice(Shown(f"{label}/{per}", si * per_size / size), abs(i - at))
+        for i, (label, size) in enumerate(energies)
+    ]
+
+
+def _prefix_choices(exponents: Mapping[str, float], units: str) -> list[_Choice]:
+    """The index unit as built, and with its leading stress atom re-prefixed (GPa^(1/3), MPa^(1/3))."""
+    atoms, factor = _simplified(exponents, units)
+    built = _Choice(Shown(_join(atoms), factor), 0)
+    scale = dict(_PRESSURES[units])
+    pressures = [a for a in atoms if a in scale]
+    if not pressures:
+        return [built]
+    lead = max(pressures, key=lambda a: (atoms[a] > 0, abs(atoms[a])))
+    names = list(scale)
+    choices = []
+    for i, other in enumerate(names):
+        moved: dict[str, float] = {}
+        for atom, q in atoms.items():
+            key = other if atom == lead else atom
+            moved[key] = moved.get(key, 0.0) + q
+        moved = {a: q for a, q in moved.items() if not math.isclose(q, 0.0, abs_tol=1e-9)}
+        k = factor * (scale[lead] / scale[other]) ** atoms[lead]
+        choices.append(_Choice(Shown(_join(moved), k), abs(i - names.index(lead))))
+    return choices
+
+
+def _outside(x: float) -> float:
+    """How many decades ``x`` lies outside the readable band (0 inside it)."""
+    if not (math.isfinite(x) and x > 0):
+        return math.inf
+    low, high = READABLE
+    if low <= x < high:
+        return 0.0
+    return max(math.log10(low / x), math.log10(x / high), 1e-9)
+
+
+def _spread(values: Sequence[float] | np.ndarray | None) -> tuple[float, float]:
+    """The highest and the median of the positive finite values (NaN for none)."""
     arr = np.asarray([] if values is None else values, dtype=float)
     arr = arr[np.isfinite(arr) & (arr > 0)]
-    return float(np.median(arr)) if arr.size else float("nan")
+    return (float(arr.max()), float(np.median(arr))) if arr.size else (math.nan, math.nan)
+
+
+def _chosen(choices: Sequence[_Choice], values: Sequence[float] | np.ndarray | None) -> Shown:
+    """The band rule: the unit in which the leader and the median both read in [0.1, 1000).
+
+    Where several do, the nearest to the preferred unit, then the one with larger numbers;
+    where none does, the leader decides (the unit that puts the highest value in the band,
+    then the median as near to it as the unit allows). No values: the preferred unit.
+    """
+    top, median = _spread(values)
+    if not math.isfinite(top):
+        return min(choices, key=lambda c: c.steps).shown
+
+    def key(c: _Choice) -> tuple[bool, float, float, int, float]:
+        lead, mid = _outside(top * c.shown.factor), _outside(median * c.shown.factor)
+        return (lead > 0 or mid > 0, lead, mid, c.steps, -c.shown.factor)
+
+    return min(choices, key=key).shown
 
 
 def index_unit(
@@ -152,26 +298,22 @@ def index_unit(
 ) -> Shown:
     """The unit an index is shown in, and the factor from its value in stored units.
 
-    ``values`` are the index values (stored units) of the classes shown; an energy-type
-    index takes the prefix that puts their median between 0.1 and 1000.
+    The unit is built from each property's unit (density in Mg/m³ or lb/in³), powers of
+    the same atom added and cancelled: K_IC²/σ_y reads in MPa·m, K_IC/σ_y in m½
+    (``_simplified`` says what cancels). An energy-type index reads as elastic energy per
+    what it is bought by: J/m³, J/m² (K_IC²/E), J/kg, J/USD, J/kg CO2e or J/MJ, with
+    in·lbf, ft·lbf, kip·in or kip·ft per in³, in², lb, USD ... for ``--units us``.
+
+    ``values`` are the index values (stored units) of the classes shown. Of the units an
+    index may take (the energy's prefix, or its leading stress or modulus re-prefixed:
+    GPa^(1/3) or MPa^(1/3)), the one chosen puts the highest value (the leaders) and the
+    median both between 0.1 and 1000, keeping the preferred unit (the published one, kJ
+    for energies, ft·lbf in US units, in·lbf per in³ or in²) where it does; where no unit
+    can, the leaders are read in the band and the median as near to it as a prefix allows.
     """
     kind = _energy_kind(exponents)
-    if kind is not None:
-        si = math.prod(property_of(s).si_factor ** p for s, p in exponents.items())
-        if units == "us":
-            label, per = (
-                ("in·lbf/in³", LBF_IN / INCH**3) if kind == "volume" else ("ft·lbf/lb", 12 * LBF_IN / POUND)
-            )
-            return Shown(label, si / per)
-        typical = _typical(values) * si
-        prefixes = (("J", 1.0), ("kJ", 1e3), ("MJ", 1e6), ("GJ", 1e9))
-        chosen = prefixes[1]
-        if math.isfinite(typical):
-            chosen = next((x for x in prefixes if typical / x[1] < READABLE[1]), prefixes[-1])
-        return Shown(f"{chosen[0]}/{'m³' if kind == 'volume' else 'kg'}", si / chosen[1])
-    parts = [(*_index_part(s, units), p) for s, p in exponents.items()]
-    label = _join([(label, p) for label, _f, p in parts])
-    return Shown(label, math.prod(f**p for _label, f, p in parts))
+    choices = _energy_choices(kind, exponents, units) if kind else _prefix_choices(exponents, units)
+    return _chosen(choices, values)
 
 
 # Quantities inside reason texts, as the pipeline writes them: a number or a range and a stored label.
