@@ -99,12 +99,12 @@ def range_unit(symbol: str, high: float, units: str = "si") -> Shown:
 
 
 # Pressure atoms an index unit may re-prefix, smallest first (label, size in the smallest).
-_PRESSURES = {
+_PRESSURES: dict[str, tuple[tuple[str, float], ...]] = {
     "si": (("kPa", 1.0), ("MPa", 1e3), ("GPa", 1e6)),
     "us": (("psi", 1.0), ("ksi", 1e3), ("Msi", 1e6)),
 }
 # Energies an energy-type index may read in, smallest first (label, J), and the one preferred.
-_ENERGIES = {
+_ENERGIES: dict[str, tuple[tuple[str, float], ...]] = {
     "si": (("J", 1.0), ("kJ", 1e3), ("MJ", 1e6), ("GJ", 1e9)),
     "us": (("in·lbf", LBF_IN), ("ft·lbf", 12 * LBF_IN), ("kip·in", 1e3 * LBF_IN), ("kip·ft", 12e3 * LBF_IN)),
 }
