@@ -398,10 +398,10 @@ def section(shape: str, dims: tuple[str, ...], fmt: str | None, units: str | Non
     """Properties of a cross-section: SHAPE DIM=VALUE ... (e.g. i-section b=100mm h=200mm tf=10mm tw=6mm)."""
     from selector.inputs.spec import parse_dimension_args
     from selector.mechanics.sections import build_section
-    from selector.outputs import tables
+    from selector.outputs.section_table import render_section
 
     section = build_section(shape, parse_dimension_args(shape, dims))
-    click.echo(tables.render_section(section, fmt or "table", units or "si", _width(wide)))
+    click.echo(render_section(section, fmt or "table", units or "si", _width(wide)))
 
 
 @cli.command()

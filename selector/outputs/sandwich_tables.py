@@ -21,7 +21,7 @@ from selector.outputs.tables import (
     render,
     short_names,
 )
-from selector.outputs.terminal import Layout, wrap
+from selector.outputs.terminal import Layout, Shorten, Step, wrap
 
 
 def pairs_frame(selection: Any, units: str = "si", top: int | None = None) -> pd.DataFrame:
@@ -151,8 +151,10 @@ def render_sandwich(
         return csv_text(flat_pairs(selection, units, top))
     frame = pairs_frame(selection, units, top)
     result = selection.sandwich
-    shown = frame.drop(columns=["face", "core"]).assign(
-        utilisation=[_utilisation_text(u) for u in frame["utilisation"]]
+    shown = (
+        frame.drop(columns=["face", "core"])
+        .rename(columns={"face_name": "face", "core_name": "core"})
+        .assign(utilisation=[_utilisation_text(u) for u in frame["utilisation"]])
     )
     loads = result.loads
     head = [
@@ -169,16 +171,23 @@ def render_sandwich(
         "",
         f"CAUTION: {selection.caution}",
     ]
-    names = short_names(selection.table)
-    layout = Layout(
-        short={
-            "face_name": [names.get(str(i), str(i)) for i in frame["face"]],
-            "core_name": [names.get(str(i), str(i)) for i in frame["core"]],
-        },
-        notes=("warnings",),
-        spare=("utilisation", "deflection_shear", "deflection_bending", "co2"),
-        optional=("cost", "depth"),
-        elide=("face_name", "core_name"),
-    )
-    body = render(shown, "md" if fmt == "md" else "table", width, layout)
+    body = render(shown, "md" if fmt == "md" else "table", width, _pairs_layout(selection, frame))
     return "\n".join([*wrap(head, width), "", body, "", *wrap(foot, width)])
+
+
+def _pairs_layout(selection: Any, frame: pd.DataFrame) -> Layout:
+    """How the pairs table narrows: warnings to notes, short names, utilisations and deflections
+    out, then the totals not ranked on (energy and depth first), the objective kept."""
+    names = short_names(selection.table)
+    objective = selection.sandwich.loads.objective
+    totals = [c for c in ("energy", "depth", "co2", "cost") if c != objective]
+    steps: list[Step] = [
+        Shorten("co2", name="CO2e", unit="kg"),
+        Shorten("face", [names.get(str(i), str(i)) for i in frame["face"]]),
+        Shorten("core", [names.get(str(i), str(i)) for i in frame["core"]]),
+        "utilisation",
+        "deflection_shear",
+        "deflection_bending",
+        *totals,
+    ]
+    return Layout(notes=("warnings",), steps=steps, elide=("face", "core"))

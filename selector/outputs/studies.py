@@ -14,8 +14,8 @@ from typing import Any
 import pandas as pd
 
 from selector.mechanics.objectives import OBJECTIVE_UNITS
-from selector.outputs.tables import render
-from selector.outputs.terminal import Layout, wrap
+from selector.outputs.tables import fit_frame, render
+from selector.outputs.terminal import Layout, Shorten, Step, wrap
 from selector.pipeline.columns import is_index_column
 from selector.pipeline.robust import RobustResult
 from selector.pipeline.tradeoff import EXCHANGE_LABELS
@@ -60,22 +60,21 @@ def _short_of(class_id: str, name: str, short: Mapping[str, str]) -> str:
     return " + ".join(short[p] for p in parts) if len(parts) > 1 and all(p in short for p in parts) else name
 
 
-def _layout(frame: pd.DataFrame, short: Mapping[str, str] | None, optional: tuple[str, ...]) -> Layout:
-    """Study tables narrow by notes, short names, then the named columns (id, family last)."""
-    shorts = {}
+def _layout(
+    frame: pd.DataFrame,
+    short: Mapping[str, str] | None,
+    optional: tuple[str, ...],
+    short_always: bool = False,
+) -> Layout:
+    """Study tables narrow by notes, standard errors, short names, then the named columns (id, family last).
+
+    ``short_always`` names classes by their short names whatever the width (to match a table beside it).
+    """
+    steps: list[Step] = [c for c in frame.columns if str(c).endswith("_se")]
     if short and "name" in frame:
-        shorts = {
-            "name": [
-                _short_of(str(i), str(n), short) for i, n in zip(frame["id"], frame["name"], strict=True)
-            ]
-        }
-    return Layout(
-        short=shorts,
-        notes=("note",),
-        spare=tuple(c for c in frame.columns if str(c).endswith("_se")),
-        optional=(*optional, "family", "id"),
-        elide=("name",),
-    )
+        names = [_short_of(str(i), str(n), short) for i, n in zip(frame["id"], frame["name"], strict=True)]
+        steps.append(Shorten("name", names, always=short_always))
+    return Layout(notes=("note",), steps=(*steps, *optional, "family", "id"), elide=("name",))
 
 
 def _head(frame: pd.DataFrame, top: int | None) -> pd.DataFrame:
@@ -150,11 +149,14 @@ def render_tradeoff(
     body = "md" if fmt == "md" else "table"
     objectives = [c for c in front.columns if c in OBJECTIVE_UNITS or is_index_column(c)]
     shown = f", the first {top} shown" if top is not None and top < len(front) else ""
+    tables = {name: render(frame, body) for name, frame in frames.items()}
+    if body == "table":
+        tables = _fitted_alike(frames, width, short, {"front": ("rank",), kind: ("on_hull", "rank")})
     lines = [
         f"Pareto front ({' vs '.join(objectives)}; all minimised): {len(front)} members{shown}",
         *([f"note: {note}"] if note else []),
         "",
-        render(frames["front"], body, width, _layout(frames["front"], short, ("rank",))),
+        tables["front"],
         "",
     ]
     if kind == "penalty":
@@ -168,8 +170,25 @@ def render_tradeoff(
             "(Z = y + α·x; empty where never best)"
         )
     lines = wrap(lines, width)
-    lines += ["", render(frames[kind], body, width, _layout(frames[kind], short, ("on_hull", "rank")))]
+    lines += ["", tables[kind]]
     return "\n".join(lines)
+
+
+def _fitted_alike(
+    frames: Mapping[str, pd.DataFrame],
+    width: int | None,
+    short: Mapping[str, str] | None,
+    optional: Mapping[str, tuple[str, ...]],
+) -> dict[str, str]:
+    """Tables printed one above the other, fitted to ``width``; if one names classes by their
+    short names, every one does."""
+    fitted = {name: fit_frame(f, width, _layout(f, short, optional[name])) for name, f in frames.items()}
+    if any("name" in f.shortened for f in fitted.values()):
+        fitted = {
+            name: fit_frame(f, width, _layout(f, short, optional[name], short_always=True))
+            for name, f in frames.items()
+        }
+    return {name: f.text for name, f in fitted.items()}
 
 
 def render_robustness(
@@ -228,9 +247,13 @@ def render_robustness(
             "",
             f"Sensitivity of the leader ({leader}) to each property's scatter:",
             "",
-            render(frames["sensitivity"], body, width, Layout(elide=("property",))),
+            render(frames["sensitivity"], body, width, _SENSITIVITY_LAYOUT),
         ]
     return "\n".join(wrap(lines, width))
+
+
+_SENSITIVITY_LAYOUT = Layout(steps=("leader", "p_best_se", "name"), elide=("name",))
+"""The leader is named above the sensitivity table and each property by its symbol too."""
 
 
 def _spare_odds(shown: pd.DataFrame) -> tuple[str, ...]:

@@ -19,7 +19,7 @@ from selector.inputs.properties import PROPERTIES, RATINGS
 from selector.inputs.units import format_number
 from selector.outputs import display_units
 from selector.outputs.cells import csv_text, markdown_text
-from selector.outputs.terminal import Layout, fit_table, wrap
+from selector.outputs.terminal import Fitted, Layout, Shorten, Step, fit, wrap
 from selector.pipeline import columns
 
 SUMMARY_PROPERTIES = ("rho", "E", "sigma_y", "sigma_ts", "T_max", "price")
@@ -120,8 +120,14 @@ def render_materials(
     chosen = table[table["id"].isin(frame["id"])]
     summary = materials_summary(chosen, units)
     layout = Layout(
-        short={"name": _shorts(chosen["id"], short_names(chosen))},
-        optional=("sigma_ts", "T_max", "family", "price"),
+        steps=(
+            Shorten("name", _shorts(chosen["id"], short_names(chosen))),
+            "sigma_ts",
+            "T_max",
+            "family",
+            "price",
+            "sigma_y",
+        ),
         elide=("name",),
     )
     return render(summary, fmt, width, layout)
@@ -193,14 +199,17 @@ TEXT_ROWS = ("note", "source", "origin")
 def render_class(
     table: pd.DataFrame, class_id: str, fmt: str, units: str = "si", width: int | None = None
 ) -> str:
-    """One class in the chosen format; on a terminal its notes and source follow the table, wrapped."""
+    """One class in the chosen format; on a terminal its name heads the table and its notes and
+    source follow it, wrapped."""
     frame = class_frame(table, class_id, units)
     if fmt != "table":
         return render(frame, fmt)
     prose = frame["property"].isin(TEXT_ROWS) & (frame["low"].astype(str) != "")
     text = [f"{row.property}: {row.low}" for row in frame[prose].itertuples()]
-    body = render(frame[~prose], fmt, width, Layout(elide=("low",)))
-    return "\n".join([body, *([""] if text else []), *wrap(text, width)])
+    title = frame["property"] == "name"
+    body = render(frame[~prose & ~title], fmt, width, Layout(elide=("low",)))
+    name = f"{class_id}: {frame.loc[title, 'low'].iat[0]}"
+    return "\n".join([*wrap([name], width), "", body, *([""] if text else []), *wrap(text, width)])
 
 
 def _cell(value: Any) -> str:
@@ -223,9 +232,9 @@ def render(frame: pd.DataFrame, fmt: str, width: int | None = None, layout: Layo
         return csv_text(frame)
     if fmt == "json":
         return json.dumps(_json_records(frame), indent=2, allow_nan=False)
-    cells = [[_cell(v) for v in row] for row in frame.itertuples(index=False)]
-    header = [str(c) for c in frame.columns]
     if fmt == "md":
+        cells = _cells(frame)
+        header = [str(c) for c in frame.columns]
         lines = [
             "| " + " | ".join(markdown_text(h) for h in header) + " |",
             "|" + "|".join("---" for _ in header) + "|",
@@ -234,7 +243,16 @@ def render(frame: pd.DataFrame, fmt: str, width: int | None = None, layout: Layo
             "| " + " | ".join(markdown_text(c).replace("|", "\\|") for c in row) + " |" for row in cells
         ]
         return "\n".join(lines)
-    return fit_table(header, cells, width, layout)
+    return fit_frame(frame, width, layout).text
+
+
+def _cells(frame: pd.DataFrame) -> list[list[str]]:
+    return [[_cell(v) for v in row] for row in frame.itertuples(index=False)]
+
+
+def fit_frame(frame: pd.DataFrame, width: int | None, layout: Layout | None = None) -> Fitted:
+    """A frame as a terminal table fitted to ``width`` (``terminal.fit``), with what it shortened."""
+    return fit([str(c) for c in frame.columns], _cells(frame), width, layout)
 
 
 def short_names(table: pd.DataFrame) -> dict[str, str]:
@@ -391,7 +409,7 @@ def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -
         ]
         out[heads[columns.MASS]] = table[columns.MASS].where(feasible) * mf
         out[heads[columns.COST]] = table[columns.COST].where(feasible)
-        out[heads[columns.CO2]] = table[columns.CO2].where(feasible) * mf
+        out[heads[columns.CO2]] = table[columns.CO2].where(feasible)  # kg CO2e in every system
         if columns.ENERGY in columns.sized_values(selection.spec.objective.minimize):
             out[heads[columns.ENERGY]] = table[columns.ENERGY].where(feasible)
         out[heads[columns.DEFLECTION]] = table[columns.DEFLECTION].where(feasible) * lf
@@ -496,7 +514,8 @@ def render_selection(
 
     lead = selection.derivations[0].constraint if selection.derivations else ""
     typed = selection.expression is not None
-    head.append(f"merit index (maximise): M = {selection.index_text}" + ("" if typed else governs(lead)))
+    stated = "" if typed else f" in {index_shown(selection, units).label}{governs(lead)}"
+    head.append(f"merit index (maximise): M = {selection.index_text}{stated}")
     shown = selection.derivations[1:] if not typed else selection.derivations
     head += [f"also: {x.constraint} index M = {x.index_text}{governs(x.constraint)}" for x in shown]
     head += [f"note: {n}" for n in selection.notes]
@@ -519,17 +538,38 @@ def render_selection(
 
 
 def _rank_layout(selection: Any, frame: pd.DataFrame, shown: pd.DataFrame) -> Layout:
-    """How the rank table narrows: notes first, then short names, then the least needed columns."""
+    """How the rank table narrows.
+
+    Notes go under the table first; then narrower forms that lose nothing the lines above
+    do not say (the index unit, stated on the merit index line; the governing constraint's
+    name only, its index being listed above; short class names; sizes as ``d×t``); then
+    the columns least needed, utilisations first, the objective kept longest.
+    """
     objective = selection.ranked_by if selection.sized else None
-    amounts = [c.split(" [")[0] for c in shown.columns if c.startswith(("mass [", "cost [", "co2 ["))]
-    others = tuple(a for a in ("co2", "cost", "mass") if a in amounts and a != objective)
-    return Layout(
-        short={"class": _shorts(frame["id"], short_names(selection.table))},
-        notes=("notes", "reasons"),
-        spare=("utilisation",),
-        optional=("status", *others, "family", "governing"),
-        elide=("class",),
-    )
+    names = {split_header(str(c))[0]: split_header(str(c))[1] for c in shown.columns}
+    others = tuple(a for a in ("co2", "cost", "mass") if a in names and a != objective)
+    index = next(c for c in (columns.INDEX, columns.INDEX_LOW) if c in names)
+    symbol = "M" if index == columns.INDEX else "M low"
+    steps: list[Step] = [Shorten(index, name=symbol, unit="")]
+    if "governing" in names:
+        steps.append(Shorten("governing", list(frame["governing"].fillna("–"))))
+    if names.get("co2") == "kg CO2e":
+        steps.append(Shorten("co2", name="CO2e", unit="kg"))
+    steps.append(Shorten("class", _shorts(frame["id"], short_names(selection.table))))
+    sizes = _size_product(frame["dimensions"]) if "dimensions" in frame else None
+    if sizes is not None:
+        steps.append(Shorten("size", sizes[1], name=sizes[0]))
+    steps += ["utilisation", "family", *others, index, "status", "governing"]
+    return Layout(notes=("notes", "reasons"), steps=steps, elide=("class",))
+
+
+def _size_product(dims: pd.Series) -> tuple[str, list[str]] | None:
+    """Sizes written ``90.1×3.6`` under a header ``d×t``, when every sized part has the same dimensions."""
+    keys = {tuple(d) for d in dims if isinstance(d, dict)}
+    if len(keys) != 1 or not next(iter(keys)):
+        return None
+    cells = ["×".join(format_number(v) for v in d.values()) if isinstance(d, dict) else "–" for d in dims]
+    return "×".join(next(iter(keys))), cells
 
 
 def _util_text(u: Any) -> str:
@@ -584,85 +624,3 @@ def _compact(frame: pd.DataFrame, units: str, heads: dict[str, str], ranking_key
     else:
         out["reasons"] = ["; ".join(r) for r in frame["reasons"]]
     return out
-
-
-SECTION_ROWS = (
-    # key, label, SI scale to (mm-based) display, mm power, from the Section
-    ("area", "area A", 2),
-    ("centroid", "centroid (cx, cy)", 1),
-    ("Ixx", "second moment Ixx", 4),
-    ("Iyy", "second moment Iyy", 4),
-    ("Ixy", "product of area Ixy", 4),
-    ("I11", "principal I11", 4),
-    ("I22", "principal I22", 4),
-    ("Zx_top", "section modulus Zx top", 3),
-    ("Zx_bottom", "section modulus Zx bottom", 3),
-    ("Zy_left", "section modulus Zy left", 3),
-    ("Zy_right", "section modulus Zy right", 3),
-    ("rx", "radius of gyration rx", 1),
-    ("ry", "radius of gyration ry", 1),
-    ("J", "torsion constant J", 4),
-    ("Zt", "torsional modulus Zt", 3),
-)
-
-
-def section_values(section: Any, units: str = "si") -> dict[str, dict[str, Any]]:
-    """Every reported section property as {"value": ..., "unit": ...} in mm- or inch-based units."""
-    length, factor = ("mm", 1e3) if units == "si" else ("in", 1 / 0.0254)
-    sup = {1: "", 2: "^2", 3: "^3", 4: "^4"}
-    raw = {
-        "area": section.A,
-        "Ixx": section.Ixx,
-        "Iyy": section.Iyy,
-        "Ixy": section.Ixy,
-        "I11": section.I11,
-        "I22": section.I22,
-        "Zx_top": section.Zx_top,
-        "Zx_bottom": section.Zx_bottom,
-        "Zy_left": section.Zy_left,
-        "Zy_right": section.Zy_right,
-        "rx": section.rx,
-        "ry": section.ry,
-        "J": section.J,
-        "Zt": section.Zt,
-    }
-    out: dict[str, dict[str, Any]] = {}
-    for key, _label, power in SECTION_ROWS:
-        unit = f"{length}{sup[power]}"
-        if key == "centroid":
-            out[key] = {"value": [section.cx * factor, section.cy * factor], "unit": length}
-        else:
-            out[key] = {"value": raw[key] * factor**power, "unit": unit}
-    out["principal_angle"] = {"value": math.degrees(section.phi), "unit": "deg"}
-    out["shape_factor_bending"] = {"value": section.phi_bending_stiffness, "unit": "1"}
-    out["shape_factor_bending_strength"] = {"value": section.phi_bending_strength, "unit": "1"}
-    out["shape_factor_torsion"] = {"value": section.phi_torsion_stiffness, "unit": "1"}
-    out["shape_factor_torsion_strength"] = {"value": section.phi_torsion_strength, "unit": "1"}
-    return out
-
-
-def render_section(section: Any, fmt: str, units: str = "si", width: int | None = None) -> str:
-    """A section's properties in the chosen format."""
-    values = section_values(section, units)
-    if fmt == "json":
-        return json.dumps(
-            {"shape": section.shape, **values, "J_method": section.J_method, "Zt_method": section.Zt_method},
-            indent=2,
-        )
-    labels = {key: label for key, label, _ in SECTION_ROWS} | {
-        "principal_angle": "principal angle",
-        "shape_factor_bending": "shape factor, bending stiffness",
-        "shape_factor_bending_strength": "shape factor, bending strength",
-        "shape_factor_torsion": "shape factor, torsion stiffness",
-        "shape_factor_torsion_strength": "shape factor, torsion strength",
-    }
-    rows = []
-    for key, item in values.items():
-        v = item["value"]
-        shown = ", ".join(format_number(x, 4) for x in v) if isinstance(v, list) else format_number(v, 4)
-        rows.append({"property": labels[key], "value": shown, "unit": item["unit"]})
-    frame = pd.DataFrame(rows)
-    if fmt == "csv":
-        return csv_text(frame)
-    text = render(frame, "md" if fmt == "md" else "table", width, Layout(elide=("property",)))
-    return "\n".join([text, "", *wrap([f"J: {section.J_method}", f"Zt: {section.Zt_method}"], width)])

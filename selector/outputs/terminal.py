@@ -1,16 +1,17 @@
 """Tables and prose fitted to a terminal width.
 
 A table that is too wide is narrowed in steps, each kept only while it is still needed:
-notes move to a numbered list under the table, the columns least needed are left
-out (the table says which), long names give way to short names, more columns are
-left out, and names are elided with "…". Without a width every column is printed in full.
+notes move to a numbered list under the table, then the layout's steps run in order
+(a column left out, or a column given a narrower form: short names, a shorter header, a
+unit moved to the lines above), and last names are elided with "…". The table says which
+columns it left out. Without a width every column is printed in full.
 """
 
 from __future__ import annotations
 
 import textwrap
-from collections.abc import Mapping, Sequence
-from dataclasses import dataclass, field
+from collections.abc import Sequence
+from dataclasses import dataclass
 
 GAP = "  "
 """Space between two columns."""
@@ -22,26 +23,55 @@ ELLIPSIS = "…"
 
 
 @dataclass(frozen=True)
+class Shorten:
+    """A narrower form of one column (named by its header), used only while the table is too wide.
+
+    Attributes:
+        column: the column's header name.
+        cells: narrower cells (None keeps the column's own).
+        name: a shorter header name (None keeps it).
+        unit: a shorter unit line ("" when the unit is stated above the table; None keeps it).
+        always: use the narrower form whatever the width (to match a table printed beside it).
+    """
+
+    column: str
+    cells: Sequence[str] | None = None
+    name: str | None = None
+    unit: str | None = None
+    always: bool = False
+
+
+Step = str | Shorten
+"""One narrowing step: a column left out (its header name), or a narrower form of one."""
+
+
+@dataclass(frozen=True)
 class Layout:
     """How a table may be narrowed; every field names columns by their header.
 
     Attributes:
-        short: narrower cells to use instead of a column's own (short class names).
         notes: columns whose text moves to the numbered notes under the table.
-        spare: columns left out before names are shortened, the first named first.
-        optional: columns that may be left out after that, the first named first.
+        steps: what to do next while the table is still too wide, in order.
         elide: text columns that may be cut short with "…", the first named first.
     """
 
-    short: Mapping[str, Sequence[str]] = field(default_factory=dict)
     notes: Sequence[str] = ()
-    spare: Sequence[str] = ()
-    optional: Sequence[str] = ()
+    steps: Sequence[Step] = ()
     elide: Sequence[str] = ()
+
+
+@dataclass(frozen=True)
+class Fitted:
+    """A fitted table: its text and the columns given a narrower form."""
+
+    text: str
+    shortened: frozenset[str]
 
 
 @dataclass
 class _Column:
+    key: str
+    """The header name the layout knows the column by (kept when a step renames it)."""
     name: str
     unit: str
     cells: list[str]
@@ -72,8 +102,10 @@ def _to_notes(columns: list[_Column], names: Sequence[str]) -> list[str]:
 
     Identical texts share a number.
     """
-    chosen = [c for c in columns if c.name in names]
-    if not chosen or not any(any(c.cells) for c in chosen):
+    chosen = [c for c in columns if c.key in names]
+    if not any(any(c.cells) for c in chosen):
+        for c in chosen:
+            columns.remove(c)  # nothing to say: the empty column goes too
         return []
     numbers: dict[str, int] = {}
     marks = []
@@ -86,20 +118,27 @@ def _to_notes(columns: list[_Column], names: Sequence[str]) -> list[str]:
     at = columns.index(chosen[0])
     for c in chosen:
         columns.remove(c)
-    columns.insert(at, _Column("note", "", marks))
+    columns.insert(at, _Column("note", "note", "", marks))
     return [f"[{n}] {text}" for text, n in numbers.items()]
 
 
-def _leave_out(columns: list[_Column], names: Sequence[str], width: int | None) -> list[str]:
-    """Remove the named columns in turn while the table is wider than ``width``; return those removed."""
-    removed: list[str] = []
-    for name in names:
-        if width is None or _total(columns) <= width:
-            break
-        for c in [c for c in columns if c.name == name]:
-            columns.remove(c)
-            removed.append(name)
-    return removed
+def _leave_out(columns: list[_Column], name: str) -> bool:
+    """Remove the named column; say whether it was there."""
+    found = [c for c in columns if c.key == name]
+    for c in found:
+        columns.remove(c)
+    return bool(found)
+
+
+def _shorten(columns: list[_Column], step: Shorten) -> bool:
+    """Give the named column its narrower form; say whether it was there."""
+    found = [c for c in columns if c.key == step.column]
+    for c in found:
+        if step.cells is not None:
+            c.cells = [str(x) for x in step.cells]
+        c.name = step.name if step.name is not None else c.name
+        c.unit = step.unit if step.unit is not None else c.unit
+    return bool(found)
 
 
 def _lines(columns: Sequence[_Column]) -> list[str]:
@@ -139,33 +178,41 @@ def wrap(lines: Sequence[str], width: int | None, indent: str = "  ") -> list[st
     return out
 
 
-def fit_table(
+def fit(
     headers: Sequence[str], rows: Sequence[Sequence[str]], width: int | None, layout: Layout | None = None
-) -> str:
+) -> Fitted:
     """A text table of string cells, narrowed as the module says to fit ``width`` characters.
 
     Headers written ``"name [unit]"`` print the unit on a second header line. ``width``
     None prints every column in full (and the notes in their column).
     """
     layout = layout or Layout()
-    columns = [_Column(*_split_header(h), [str(r[i]) for r in rows]) for i, h in enumerate(headers)]
-    notes: list[str] = []
+    columns = []
+    for i, header in enumerate(headers):
+        name, unit = _split_header(header)
+        columns.append(_Column(name, name, unit, [str(r[i]) for r in rows]))
+
+    def too_wide() -> bool:
+        return width is not None and _total(columns) > width
+
+    shortened: set[str] = set()
+    for step in layout.steps:
+        if isinstance(step, Shorten) and step.always and _shorten(columns, step):
+            shortened.add(step.column)
+    notes = _to_notes(columns, layout.notes) if too_wide() else []
     left_out: list[str] = []
-    if width is not None and _total(columns) > width:
-        notes = _to_notes(columns, layout.notes)
-    left_out += _leave_out(columns, layout.spare, width)
-    for name, short in layout.short.items():
-        if width is None or _total(columns) <= width:
+    for step in layout.steps:
+        if not too_wide():
             break
-        for c in columns:
-            if c.name == name:
-                c.cells = [str(s) for s in short]
-    left_out += _leave_out(columns, layout.optional, width)
+        if isinstance(step, str):
+            left_out += [step] if _leave_out(columns, step) else []
+        elif step.column not in shortened and _shorten(columns, step):
+            shortened.add(step.column)
     for name in layout.elide:
-        if width is None or _total(columns) <= width:
+        if not too_wide():
             break
-        for c in [c for c in columns if c.name == name]:
-            keep = max(MIN_ELIDED, len(c.name), c.width - (_total(columns) - width))
+        for c in [c for c in columns if c.key == name]:
+            keep = max(MIN_ELIDED, len(c.name), c.width - (_total(columns) - (width or 0)))
             c.cells = [_elided(t, keep) for t in c.cells]
     lines = _lines(columns)
     if width is not None:
@@ -175,7 +222,14 @@ def fit_table(
         tail.append(f"not shown at {width} columns: {', '.join(left_out)} (--wide shows every column)")
     if notes:
         tail += ["", "notes:"] + [f"  {n}" for n in notes]
-    return "\n".join(lines + wrap(tail, width, indent="      "))
+    return Fitted("\n".join(lines + wrap(tail, width, indent="      ")), frozenset(shortened))
 
 
-__all__ = ["Layout", "fit_table", "wrap"]
+def fit_table(
+    headers: Sequence[str], rows: Sequence[Sequence[str]], width: int | None, layout: Layout | None = None
+) -> str:
+    """The text of ``fit``: a table of string cells fitted to ``width`` characters."""
+    return fit(headers, rows, width, layout).text
+
+
+__all__ = ["Fitted", "Layout", "Shorten", "Step", "fit", "fit_table", "wrap"]
