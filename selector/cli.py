@@ -162,7 +162,9 @@ def materials_check(file: str, fmt: str | None) -> None:
 )
 @click.option("--free", default="scale", show_default=True, help="scale | depth | width | thickness | wall")
 @click.option("--support", default=None, help="Beam or column end conditions.")
-@click.option("--load", default=None, help="Beam load: end | centre | uniform.")
+@click.option(
+    "--load", default=None, help="Beam load: end | centre | uniform; cylinder: internal | external pressure."
+)
 @click.option("--criterion", default=None, help="Vessel fracture: leak-before-break | yield-before-break.")
 @click.option(
     "--load-ratio",

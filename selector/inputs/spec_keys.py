@@ -12,7 +12,14 @@ from collections.abc import Mapping
 from typing import Any
 
 from selector.errors import InputError, Location
-from selector.mechanics.loadcases import FUNCTIONS, part_kind
+from selector.mechanics.loadcases import (
+    EXTERNAL_CRITERION,
+    FUNCTIONS,
+    SPHERE_EXTERNAL,
+    VESSEL_LOADS,
+    part_kind,
+)
+from selector.suggest import did_you_mean
 
 PART_KEYS: dict[str, tuple[str, ...]] = {
     "tie": ("length", "force"),
@@ -21,7 +28,7 @@ PART_KEYS: dict[str, tuple[str, ...]] = {
     "shaft": ("length", "torque"),
     "panel": ("support", "load", "length", "force", "width", "edges"),
     "plate": ("length", "force", "width", "edges"),
-    "cylinder": ("length", "pressure", "radius"),
+    "cylinder": ("load", "length", "pressure", "radius"),
     "sphere": ("pressure", "radius"),
     "spring": ("energy", "form"),
 }
@@ -77,7 +84,9 @@ def _part_problems(part: Mapping[str, Any], fn: str, free: Any, source: str) -> 
     for key in part:
         if key == "function" or key not in _ALL_PART_KEYS:
             continue  # unknown keys are the model's to report
-        if key not in keys:
+        if fn == "sphere" and key == "load":
+            out.append(_problem(source, ("part", key), *SPHERE_EXTERNAL))
+        elif key not in keys:
             out.append(
                 _problem(
                     source,
@@ -86,6 +95,16 @@ def _part_problems(part: Mapping[str, Any], fn: str, free: Any, source: str) -> 
                     f"a {fn} takes: function, {', '.join(keys)}",
                 )
             )
+    load = part.get("load")
+    if fn == "cylinder" and isinstance(load, str) and load not in VESSEL_LOADS:
+        out.append(
+            _problem(
+                source,
+                ("part", "load"),
+                f"{load!r} is not a cylinder's load",
+                did_you_mean(load, VESSEL_LOADS),
+            )
+        )
     if fn == "beam" and "width" in part and free != "depth":
         out.append(
             _problem(
@@ -152,8 +171,9 @@ def _section_problems(
     return out
 
 
-def _constraint_problems(constraints: list[Any], fn: str | None, source: str) -> list[InputError]:
+def _constraint_problems(constraints: list[Any], fn: str | None, load: Any, source: str) -> list[InputError]:
     out = []
+    outside = fn is not None and part_kind(fn).vessel and load == "external"
     for i, item in enumerate(constraints):
         kind = item.get("type") if isinstance(item, Mapping) else None
         if not isinstance(kind, str) or kind not in CONSTRAINT_KEYS:
@@ -164,7 +184,9 @@ def _constraint_problems(constraints: list[Any], fn: str | None, source: str) ->
         if kind == "fracture" and fn is not None and not part_kind(fn).vessel:
             keys.remove("criterion")
         for key in item:
-            if key in _OWN_KEYS and key not in keys:
+            if kind == "fracture" and key == "criterion" and outside:
+                out.append(_problem(source, ("constraint", i, key), *EXTERNAL_CRITERION))
+            elif key in _OWN_KEYS and key not in keys:
                 whose = f"a {kind} constraint" + (f" of a {fn}" if fn is not None else "")
                 why = (
                     "criterion applies to the fracture constraint of a cylinder or sphere; "
@@ -197,5 +219,5 @@ def key_problems(data: Mapping[str, Any], source: str = "spec") -> list[InputErr
         out += _part_problems(part, fn, section.get("free", "scale"), source)
         out += _section_problems(section, fn, part, source)
     if isinstance(constraints, list):
-        out += _constraint_problems(constraints, fn, source)
+        out += _constraint_problems(constraints, fn, part.get("load"), source)
     return out

@@ -30,6 +30,8 @@ FUNCTIONS = ("tie", "beam", "column", "shaft", "panel", "plate", "cylinder", "sp
 SECTION_QUANTITIES = frozenset({"A", "I", "Imin", "Z", "J", "Zt"})
 BEAM_SUPPORTS = ("cantilever", "simply-supported", "fixed-fixed")
 BEAM_LOADS = ("end", "centre", "uniform")
+VESSEL_LOADS = ("internal", "external")
+"""A cylinder's pressure: from inside (the wall in tension) or from outside (in compression)."""
 COLUMN_SUPPORTS = ("pinned-pinned", "fixed-free", "fixed-pinned", "fixed-fixed")
 CONSTRAINTS = ("stiffness", "strength", "buckling", *fm.FAILURE_CONSTRAINTS)
 
@@ -57,6 +59,9 @@ PLATE_K = 4.0
 """Buckling coefficient of a long plate simply supported on all edges (common practice, no source)."""
 PLATE_NU = 0.3
 """Poisson's ratio assumed in the plate-buckling coefficient (stated in the derivation)."""
+TUBE_BUCKLING = 1 / (4 * (1 - PLATE_NU**2))
+"""Bresse's long tube under external pressure: p_cr = E/(4(1−ν²))·(t/r)³, ν = ``PLATE_NU``
+(Timoshenko & Gere, *Theory of Elastic Stability*, §7.2 — from memory)."""
 SHEAR_YIELD_RATIO = 1 / math.sqrt(3)
 """Shear yield τ_y = σ_y/√3 (von Mises), used for shafts."""
 
@@ -121,9 +126,15 @@ PART_KINDS: dict[str, PartKind] = {
 """Every function's kind of part; ``LoadCase.kind`` and ``part_kind`` read it."""
 
 
-def part_kind(function: str) -> PartKind:
-    """The kind of part a function is (``function`` one of ``FUNCTIONS``)."""
-    return PART_KINDS[_check_choice(function, FUNCTIONS, "part.function")]
+def part_kind(function: str, load: str | None = None) -> PartKind:
+    """The kind of part a function is (``function`` one of ``FUNCTIONS``).
+
+    ``load`` matters for a vessel: under external pressure its wall is in compression.
+    """
+    kind = PART_KINDS[_check_choice(function, FUNCTIONS, "part.function")]
+    if kind.vessel and load == "external":
+        return replace(kind, in_compression=True)
+    return kind
 
 
 @dataclass(frozen=True)
@@ -140,6 +151,8 @@ class LoadCase:
         needs: symbols each constraint needs from the spec, by constraint type.
         allowed_free: free variables this case can be sized by.
         notes: assumptions of the case; ``constraint_notes`` those of one constraint type.
+        load: the load where it changes what kind of part this is (a cylinder's "external"
+            pressure puts its wall in compression); None otherwise.
     """
 
     function: str
@@ -151,6 +164,7 @@ class LoadCase:
     allowed_free: tuple[str, ...]
     notes: tuple[str, ...] = field(default=())
     constraint_notes: dict[str, str] = field(default_factory=dict)
+    load: str | None = None
 
     @property
     def constraints(self) -> tuple[str, ...]:
@@ -159,7 +173,7 @@ class LoadCase:
     @property
     def kind(self) -> PartKind:
         """What kind of part this case sizes."""
-        return PART_KINDS[self.function]
+        return part_kind(self.function, self.load)
 
     @property
     def section_symbols(self) -> frozenset[str]:
@@ -195,11 +209,15 @@ def _base_case(function: str, support: str | None, load: str | None) -> LoadCase
     if function == "column":
         support = _check_choice(support or "pinned-pinned", COLUMN_SUPPORTS, "part.support")
         return _column(support)
+    if function == "cylinder":
+        load = _check_choice(load or "internal", VESSEL_LOADS, "part.load")
+        return _cylinder() if load == "internal" else _cylinder_outside()
+    if function == "sphere" and load not in (None, "internal"):
+        raise InputError("part.load", SPHERE_EXTERNAL[0], SPHERE_EXTERNAL[1])
     return {
         "tie": _tie,
         "shaft": _shaft,
         "plate": _plate,
-        "cylinder": _cylinder,
         "sphere": _sphere,
         "spring": _spring,
     }[function]()
@@ -327,6 +345,49 @@ def _cylinder() -> LoadCase:
     )
 
 
+def _cylinder_outside() -> LoadCase:
+    return LoadCase(
+        function="cylinder",
+        title="thin-walled cylinder under external pressure",
+        utilisation={
+            "buckling": M.of(1 / TUBE_BUCKLING, p=1, SF=1, r=3, t=-3, E=-1),
+            "strength": M.of(1, p=1, r=1, SF=1, t=-1, sigma_c=-1),
+            "stiffness": M.of(1, p=1, r=2, t=-1, E=-1, delta=-1),
+        },
+        responses={
+            "stress": M.of(1, p=1, r=1, t=-1),
+            "deflection": M.of(1, p=1, r=2, t=-1, E=-1),
+            "buckling_pressure": M.of(TUBE_BUCKLING, E=1, t=3, r=-3),
+        },
+        equations={
+            "buckling": "long-tube buckling pressure p_cr = E/(4(1−ν²))·(t/r)³ ≥ SF·p (Bresse), "
+            f"ν = {PLATE_NU}",
+            "strength": "compressive hoop stress σ = p·r/t ≤ σ_c/SF",
+            "stiffness": "radial shrinkage δ = p·r²/(E·t) ≤ δ_max (Poisson effect neglected)",
+        },
+        volume=M.of(2 * math.pi, r=1, L=1, t=1),
+        allowed_free=("wall",),
+        notes=(f"tube buckling assumes ν = {PLATE_NU} for every class",),
+        load="external",
+    )
+
+
+SPHERE_EXTERNAL = (
+    "a sphere is sized for internal pressure only",
+    "no load key; a sphere's buckling under external pressure is so sensitive to out-of-roundness "
+    "that tests fall to a small fraction of the classical value, so no formula here sizes it: use "
+    'a cylinder with load = "external", or test-based design rules for a sphere',
+)
+"""Why a sphere refuses external pressure, and what to do instead."""
+
+EXTERNAL_CRITERION = (
+    "leak-before-break and yield-before-break apply to a vessel under internal pressure, "
+    "not external: its wall is in compression, where a through crack does not open",
+    "no criterion; a fracture constraint with crack_length still checks the compressive hoop stress",
+)
+"""Why a vessel fracture criterion is refused under external pressure, and what to do instead."""
+
+
 def _sphere() -> LoadCase:
     return LoadCase(
         function="sphere",
@@ -446,6 +507,8 @@ def with_requirement(case: LoadCase, criterion: str | None = None, load_ratio: f
                 f"{criterion!r} applies to pressure vessels, not a {case.function}",
                 "function cylinder or sphere, or no criterion",
             )
+        if case.kind.in_compression:
+            raise InputError("constraint.criterion", *EXTERNAL_CRITERION)
         utilisation["fracture"] = (
             fm.leak_before_break(case.responses["stress"])
             if criterion == "leak-before-break"

@@ -60,6 +60,20 @@ FUNCTION_ASSUMPTIONS: dict[str, tuple[str, ...]] = {
 }
 """Function → what its load case assumes beyond its equations."""
 
+EXTERNAL_PRESSURE_ASSUMPTIONS: tuple[str, ...] = (
+    "thin wall (r/t above about 10): the compressive hoop stress p·r/t governs; the axial "
+    "stress p·r/(2t) is half of it",
+    "long tube: neither the end closures nor stiffening rings support the shell (Bresse's "
+    "long-tube pressure); a tube shorter than about 1.1·D·√(D/t) (D = 2r) between supports buckles at "
+    "a higher pressure, so its wall is conservative",
+    "perfectly round tube: out-of-roundness is not modelled, and real tubes buckle below the "
+    "classical pressure; the safety factor must cover it (check the design code's collapse curve)",
+    "buckling and crushing are checked apart: where the elastic buckling stress p_cr·r/t is "
+    "near σ_c the two interact and the collapse pressure falls below both",
+    "no end caps: their mass, their stresses and the bending where they join the shell are not included",
+)
+"""What a cylinder under external pressure assumes beyond its equations."""
+
 
 def _section_assumptions(spec: Spec, design: Design | None) -> list[str]:
     fn, shape = spec.part.function, spec.section.shape
@@ -122,7 +136,8 @@ def assumptions_for(spec: Spec, derivations: list[Derivation], design: Design | 
     out += [f"{d.constraint}: {case.equations[d.constraint]}" for d in derivations]
     out += list(case.notes)
     out += [case.constraint_notes[d.constraint] for d in derivations if d.constraint in case.constraint_notes]
-    out += list(FUNCTION_ASSUMPTIONS.get(case.function, ()))
+    outside = case.kind.vessel and case.kind.in_compression
+    out += list(EXTERNAL_PRESSURE_ASSUMPTIONS if outside else FUNCTION_ASSUMPTIONS.get(case.function, ()))
     out += _section_assumptions(spec, design)
     out += _constraint_assumptions(spec)
     out.append("properties at room temperature; the service-temperature screens do not derate them")

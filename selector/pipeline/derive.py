@@ -245,7 +245,7 @@ def derive_for_case(
         raise InputError(
             "constraint.type",
             f"{constraint!r} does not apply to a {case.function}",
-            f"one of: {', '.join(case.constraints)}",
+            f"one of: {', '.join(case.constraints)}" + _buckling_hint(case, constraint),
         )
     geo = geometry(case, free)
     x = geo.symbol
@@ -288,6 +288,13 @@ def derive_for_case(
     if criterion == "leak-before-break" and constraint == "fracture":
         return _leak_before_break(derivation, tex)
     return derivation
+
+
+def _buckling_hint(case: LoadCase, constraint: str) -> str:
+    """Where buckling does apply, for a vessel under internal pressure asked for it."""
+    if constraint == "buckling" and case.kind.vessel and not case.kind.in_compression:
+        return '; buckling applies to a cylinder under external pressure (load = "external")'
+    return ""
 
 
 def _in_free_variable(m: M, geo: Geometry) -> M:

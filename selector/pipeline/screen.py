@@ -20,7 +20,7 @@ from selector.inputs.limits import finite_float
 from selector.inputs.material_report import NUMBER
 from selector.inputs.properties import PROPERTIES, RATING_LEVELS, RATINGS
 from selector.inputs.units import format_number
-from selector.mechanics.loadcases import part_kind
+from selector.mechanics.loadcases import PartKind
 
 PASSES, PARTLY, REJECTED = "passes", "partly", "rejected"
 _LIMIT = re.compile(r"^\s*(>=|<=|>|<|≥|≤)\s*(.+?)\s*$")
@@ -242,11 +242,12 @@ def qualifying_ranges(screened: pd.DataFrame, screens: Screens) -> pd.DataFrame:
 STRENGTH_CHECKS = ("strength", "fatigue")
 
 
-def brittle_rule_applies(function: str, constraint_types: tuple[str, ...], screens: Screens) -> bool:
+def brittle_rule_applies(kind: PartKind, constraint_types: tuple[str, ...], screens: Screens) -> bool:
     """True when brittle classes must leave the ranking: a tensile or bending strength check
-    without a fracture constraint, and no ``allow_brittle``."""
+    without a fracture constraint, and no ``allow_brittle``. A part in compression (``kind``:
+    a column, a plate, a cylinder under external pressure) keeps them."""
     return (
-        not part_kind(function).in_compression
+        not kind.in_compression
         and any(t in STRENGTH_CHECKS for t in constraint_types)
         and "fracture" not in constraint_types
         and not screens.allow_brittle

@@ -453,7 +453,7 @@ def _select(spec: Spec, materials: pd.DataFrame | None, conservative: bool, inde
         derivations.append(derive_for_case(case, implicit, spec.objective.minimize, derive_free))
     screens = parse_screens(spec.screen)
     screened = apply_screens(materials.reset_index(drop=True), screens)
-    if brittle_rule_applies(case.function, tuple(c.type for c in spec.constraint), screens):
+    if brittle_rule_applies(case.kind, tuple(c.type for c in spec.constraint), screens):
         screened = reject_brittle(screened)
     screened = qualifying_ranges(screened, screens)
     screened = reject_for_stress_state(screened, stress_state(case.function, spec.part.form))

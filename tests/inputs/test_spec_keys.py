@@ -91,7 +91,7 @@ def test_the_part_keys_are_the_quantities_of_the_load_case(function):
         ("column", "load", "end"),
         ("shaft", "support", "cantilever"),
         ("plate", "support", "simply-supported"),
-        ("cylinder", "load", "uniform"),
+        ("cylinder", "edges", "clamped"),
         ("sphere", "support", "cantilever"),
         ("spring", "load", "end"),
         ("beam", "edges", "clamped"),
