@@ -333,3 +333,63 @@ def test_a_bound_on_the_part_rejects_as_the_library_does(dolly):
     expected = _expected(DOLLY, slim)
     assert _rows(view) == list(expected.shortlist["id"])
     assert len(expected.shortlist) < len(_expected(DOLLY).shortlist)  # some tubes need a larger d
+
+
+# --------------------------------------------------------------------------- a cylinder's pressure
+
+HOUSING = EXAMPLES / "sensor-pressure-housing.toml"
+
+
+def test_a_cylinder_offers_internal_or_external_pressure_and_buckling():
+    from selector.outputs.explore.editor import form_state
+
+    housing = load_start(HOUSING)
+    form = form_state(housing)
+    assert form.choices["part.load"] == ("", "internal", "external")
+    assert "part.load" in form.shown
+    assert "buckling" in form.choices["constraints"]
+    c = initial_controls(housing)
+    assert c.field("part.load") == "external"
+    assert c.constraints == ("buckling", "strength")
+    # A beam keeps its own loads.
+    assert form_state(load_start(DOLLY)).choices["part.load"] == ("", "end", "centre", "uniform")
+
+
+def test_switching_the_housing_to_internal_pressure_sizes_as_the_library_does():
+    housing = load_start(HOUSING)
+
+    def inside(data):
+        data["part"]["load"] = "internal"
+        data["constraint"] = [c for c in data["constraint"] if c["type"] != "buckling"]
+
+    c = replace(initial_controls(housing).with_field("part.load", "internal"), constraints=("strength",))
+    view = refresh(housing, c)
+    assert not any(view.messages.values()), {k: v for k, v in view.messages.items() if v}
+    assert _rows(view) == list(_expected(HOUSING, inside).shortlist["id"])
+    assert _rows(view) != _rows(refresh(housing, initial_controls(housing)))
+    # Buckling under internal pressure gets a message pointing to the external load.
+    wrong = initial_controls(housing).with_field("part.load", "internal")
+    assert 'load = "external"' in refresh(housing, wrong).messages["constraints"]
+
+
+def test_the_cylinder_load_downloads_and_uploads_to_the_same_spec():
+    housing = load_start(HOUSING)
+    c = replace(initial_controls(housing).with_field("part.load", "internal"), constraints=("strength",))
+    data, message = download(housing, c, "spec")
+    assert message == ""
+    text = data["content"]
+    assert tomllib.loads(text)["part"]["load"] == "internal"
+    uploaded = start_from_upload(housing, _upload(text), data["filename"])
+    assert uploaded.spec.part.load == "internal"
+    again = initial_controls(uploaded)
+    assert again.field("part.load") == "internal"
+    assert _rows(refresh(uploaded, again)) == _rows(refresh(housing, c))
+    # The same spec again (the section's keys may come back in another order).
+    assert tomllib.loads(download(uploaded, again, "spec")[0]["content"]) == tomllib.loads(text)
+    # And back to the file's external pressure.
+    out = again.with_field("part.load", "external")
+    out = replace(out, constraints=("buckling", "strength")).with_field(
+        "constraint.buckling.safety_factor", "3"
+    )
+    assert spec_data(uploaded, out)["part"]["load"] == "external"
+    assert _rows(refresh(uploaded, out)) == list(_expected(HOUSING).shortlist["id"])

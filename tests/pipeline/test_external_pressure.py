@@ -224,3 +224,26 @@ def test_the_cli_gives_one_error_line_for_a_bad_load(tmp_path):
     assert len(lines) == 1 and lines[0].startswith("error: ") and "housing.toml: part.load" in lines[0]
     assert "'outside' is not a cylinder's load" in lines[0]
     assert spec.read_text(encoding="utf-8") == text
+
+
+# --------------------------------------------------------------------------- the bundled housing
+
+
+def test_the_bundled_housing_leads_as_its_comment_works_out_by_hand():
+    from selector.inputs.materials import load_materials
+    from selector.inputs.spec import EXAMPLES, load_spec
+
+    spec = load_spec(EXAMPLES / "sensor-pressure-housing.toml")
+    assert spec.part.load == "external"
+    top = select(spec, load_materials()).shortlist.head(3)
+    # The example's comment: walls of 2.80, 3.62 and 2.71 mm, 0.218, 0.245 and 0.366 kg, from
+    # t = r·(3.64·SF·p/E)^(1/3) at the classes' typical E (worked by hand from the data ranges).
+    assert list(top["id"]) == ["cfrp-qi", "afrp-qi", "al-5xxx-wrought"]
+    walls = [d["t"] for d in top["dimensions"]]
+    assert walls == pytest.approx([2.80e-3, 3.62e-3, 2.71e-3], rel=2e-3)
+    assert list(top["mass"]) == pytest.approx([0.218, 0.245, 0.366], rel=2e-3)
+    assert set(top["governing"]) == {"buckling"}
+    # An engineer's first look: no ceramic or glass, no wall below the 1.5 mm handling minimum,
+    # every wall thin enough for the membrane stress (r/t above 10; common practice, no source).
+    assert not set(top["family"]) & {"ceramic", "glass"}
+    assert min(walls) >= 1.5e-3 and 0.040 / max(walls) > 10

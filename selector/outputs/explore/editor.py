@@ -20,7 +20,7 @@ from dash import dcc, html
 from selector.inputs.limits import MAX_TOML_BYTES
 from selector.inputs.properties import FAMILIES, PROPERTIES, RATING_LEVELS, RATINGS
 from selector.inputs.units import format_number
-from selector.mechanics.loadcases import CONSTRAINTS
+from selector.mechanics.loadcases import CONSTRAINTS, VESSEL_LOADS, LoadCase, load_case
 from selector.outputs.explore.fields import (
     CONSTRAINT_FIELDS,
     PART_FIELDS,
@@ -106,7 +106,7 @@ def form_state(start: Start) -> FormState:
     options = {k: v for k, v in options.items() if v}
     if shape not in options.get("section.shape", ()):
         options["section.shape"] = (*options.get("section.shape", ()), shape)
-    options["constraints"] = case.constraints
+    options["constraints"] = _constraint_types(function, case)
     options["free"] = case.allowed_free if shape != SANDWICH_SHAPE else (spec.section.free,)
     kept = tuple(f"{k} {', '.join(v) if isinstance(v, list) else v}" for k, v in kept_screens(spec).items())
     return FormState(
@@ -117,6 +117,15 @@ def form_state(start: Start) -> FormState:
         kept=kept,
         part_text=f"Part: {function}",
     )
+
+
+def _constraint_types(function: str, case: LoadCase) -> tuple[str, ...]:
+    """The constraint types on offer: the case's, and for a cylinder those under either
+    pressure, so buckling stays on offer when its load is switched to external."""
+    if function != "cylinder":
+        return case.constraints
+    cases = (case, *(load_case(function, load=load) for load in VESSEL_LOADS))
+    return tuple(dict.fromkeys(t for c in cases for t in c.constraints))
 
 
 # --------------------------------------------------------------------------- the part and its section
