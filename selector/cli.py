@@ -357,9 +357,7 @@ def _studies(
     if selection.tradeoff is not None:
         study = selection.tradeoff
         parts.append(
-            render_tradeoff(
-                study.front, study.second, fmt, study.exchange, study.note, width, short, units, top
-            )
+            render_tradeoff(study.front, study.second, fmt, study.alpha, study.note, width, short, units, top)
         )
     if selection.robust_error is not None:
         raise selection.robust_error

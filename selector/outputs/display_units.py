@@ -29,6 +29,8 @@ INCH = 0.0254
 POUND = 0.45359237
 KSI_SQRT_IN = 1e3 * PSI * math.sqrt(INCH)
 """Pa·m^0.5 per ksi·in^0.5 (1.0988e6)."""
+BTU = 1055.05585262
+"""J per British thermal unit (International Table: 4.1868 J/(g·K) × 453.59237 g × 5/9 K, exact)."""
 LBF_IN = 4.4482216152605 * INCH
 """J per inch-pound-force."""
 
@@ -135,7 +137,9 @@ def _index_part(symbol: str, units: str) -> tuple[str, float]:
         return ("Mg/m³", 1e-3) if units == "si" else ("lb/in³", INCH**3 / POUND)
     if symbol == "price" and units == "us":
         return "USD/lb", POUND
-    if symbol in ("co2", "energy") or units == "si":
+    if symbol == "energy" and units == "us":
+        return "BTU/lb", 1e6 / BTU * POUND
+    if symbol == "co2" or units == "si":
         return property_of(symbol).label, 1.0
     shown = _factor_to(symbol, units)
     return shown.label, shown.factor
@@ -316,33 +320,50 @@ def index_unit(
     return _chosen(choices, values)
 
 
-# Quantities inside reason texts, as the pipeline writes them: a number or a range and a stored label.
+# Quantities inside texts: a number or a range ("6–20", "1 to 10", "0 and -20") and a unit,
+# either a property's stored label (as the pipeline writes reasons) or a unit written in prose.
 _LABELS = {p.label: p for p in PROPERTIES.values() if p.label not in ("–", "%")}
+_PROSE_UNITS = {
+    # written unit: (pint unit it is, US pint unit, US label)
+    "mm": ("mm", "in", "in"),
+    "m": ("m", "ft", "ft"),
+    "J": ("J", "ft*lbf", "ft·lbf"),
+    "kN": ("kN", "lbf", "lbf"),
+    "N": ("N", "lbf", "lbf"),
+    "degC": ("degC", "degF", "°F"),
+}
+_NUMBER = r"-?\d+(?:\.\d+)?(?:e[-+]?\d+)?"
+_UNIT_WORDS = "|".join(re.escape(x) for x in sorted([*_LABELS, *_PROSE_UNITS], key=len, reverse=True))
 _QUANTITY = re.compile(
-    r"(?P<low>-?\d+(?:\.\d+)?(?:e[-+]?\d+)?)(?:–(?P<high>-?\d+(?:\.\d+)?(?:e[-+]?\d+)?))? "
-    r"(?P<unit>" + "|".join(re.escape(x) for x in sorted([*_LABELS, "mm"], key=len, reverse=True)) + r")"
-    r"(?![\w/·])"
+    rf"(?<![\w.])(?P<low>{_NUMBER})(?:(?P<sep>–| to | and )(?P<high>{_NUMBER}))? "
+    rf"(?P<unit>{_UNIT_WORDS})(?![\w/·²³½])"
 )
 
 
-def text_in_units(text: str, units: str) -> str:
-    """A message with its stored-unit quantities ("6–20 MPa·m½", "300 mm") in ``units``."""
+def text_in_units(text: str, units: str, quoted: bool = False) -> str:
+    """A message with its quantities ("6–20 MPa·m½", "300 mm", "27 J") in ``units``.
+
+    ``quoted`` keeps each quantity as written and adds the converted one in brackets,
+    for text quoting a standard ("t up to 16 mm [0.63 in]").
+    """
     if units != "us":
         return text
     from selector.inputs.units import convert, format_number
 
     def repl(match: re.Match[str]) -> str:
         unit = match.group("unit")
-        if unit == "mm":
-            label, stored, us = "in", "mm", "in"
+        if unit in _PROSE_UNITS:
+            stored, us, label = _PROSE_UNITS[unit]
         else:
             prop = _LABELS[unit]
-            label, stored, us = prop.us_label, prop.stored, prop.us
-        low = float(convert(float(match.group("low")), stored, us))
-        out = format_number(low)
+            stored, us, label = prop.stored, prop.us, prop.us_label
+        if stored == us:
+            return match.group(0)
+        out = format_number(float(convert(float(match.group("low")), stored, us)))
         if match.group("high") is not None:
-            out += "–" + format_number(float(convert(float(match.group("high")), stored, us)))
-        return f"{out} {label}"
+            high = format_number(float(convert(float(match.group("high")), stored, us)))
+            out += f"{match.group('sep')}{high}"
+        return f"{match.group(0)} [{out} {label}]" if quoted else f"{out} {label}"
 
     return _QUANTITY.sub(repl, text)
 

@@ -12,12 +12,15 @@ import pandas as pd
 
 from selector.mechanics.sandwich import MODES
 from selector.outputs.cells import csv_text
+from selector.outputs.display_units import text_in_units
 from selector.outputs.tables import (
     _LENGTH_FACTOR,
     _MASS_FACTOR,
+    ENERGY_UNIT,
     LENGTH_UNIT,
     MASS_UNIT,
     _json_value,
+    assumptions_in,
     render,
     short_names,
 )
@@ -30,6 +33,7 @@ def pairs_frame(selection: Any, units: str = "si", top: int | None = None) -> pd
     pairs = result.feasible if top is None else result.feasible.head(top)
     lf, mf = _LENGTH_FACTOR[units], _MASS_FACTOR[units]
     lu, mu = LENGTH_UNIT[units], MASS_UNIT[units]
+    eu, ef = ENERGY_UNIT[units]
     return pd.DataFrame(
         {
             "rank": pairs["rank"].astype(int),
@@ -43,12 +47,12 @@ def pairs_frame(selection: Any, units: str = "si", top: int | None = None) -> pd
             f"mass [{mu}]": pairs["mass"] * mf,
             "cost [USD]": pairs["cost"],
             "co2 [kg CO2e]": pairs["co2"],
-            "energy [MJ]": pairs["energy"],
+            f"energy [{eu}]": pairs["energy"] * ef,
             f"deflection_bending [{lu}]": pairs["deflection_bending"] * lf,
             f"deflection_shear [{lu}]": pairs["deflection_shear"] * lf,
             "utilisation": pairs["utilisation"],
             "governing": pairs["governing"],
-            "warnings": pairs["warnings"],
+            "warnings": [[text_in_units(str(w), units) for w in ws] for ws in pairs["warnings"]],
         }
     )
 
@@ -73,6 +77,7 @@ def solid_line(selection: Any, units: str) -> str:
 def _json(selection: Any, units: str, top: int | None) -> str:
     frame = pairs_frame(selection, units, top)
     lu, mu = LENGTH_UNIT[units], MASS_UNIT[units]
+    eu = ENERGY_UNIT[units][0]
     rows = []
     for r in frame.to_dict(orient="records"):
         rows.append(
@@ -89,7 +94,7 @@ def _json(selection: Any, units: str, top: int | None) -> str:
                 "mass": {"value": _json_value(r[f"mass [{mu}]"]), "unit": mu},
                 "cost": {"value": _json_value(r["cost [USD]"]), "unit": "USD"},
                 "co2": {"value": _json_value(r["co2 [kg CO2e]"]), "unit": "kg CO2e"},
-                "energy": {"value": _json_value(r["energy [MJ]"]), "unit": "MJ"},
+                "energy": {"value": _json_value(r[f"energy [{eu}]"]), "unit": eu},
                 "deflection": {
                     "bending": {"value": _json_value(r[f"deflection_bending [{lu}]"]), "unit": lu},
                     "shear": {"value": _json_value(r[f"deflection_shear [{lu}]"]), "unit": lu},
@@ -116,7 +121,7 @@ def _json(selection: Any, units: str, top: int | None) -> str:
     out = {
         "pairs": rows,
         "solid": solid_out,
-        "assumptions": list(selection.assumptions),
+        "assumptions": assumptions_in(selection, units),
         "caution": selection.caution,
     }
     return json.dumps(out, indent=2, allow_nan=False)
@@ -161,7 +166,7 @@ def render_sandwich(
         f"{selection.spec.title}: sandwich {loads.function}, {loads.case.support}, {loads.case.load} load; "
         f"minimise {loads.objective}",
         *(f"  {eq}" for eq in loads.case.equations),
-        *(f"assumes: {a}" for a in selection.assumptions),
+        *(f"assumes: {a}" for a in assumptions_in(selection, units)),
     ]
     foot = [
         solid_line(selection, units),

@@ -13,23 +13,38 @@ from typing import Any
 
 import pandas as pd
 
+from selector.inputs.units import format_number
 from selector.mechanics.objectives import OBJECTIVE_UNITS
+from selector.outputs.display_units import BTU, INCH, POUND, text_in_units
 from selector.outputs.tables import fit_frame, render
 from selector.outputs.terminal import Layout, Shorten, Step, wrap
 from selector.pipeline.columns import is_index_column
 from selector.pipeline.robust import RobustResult
 from selector.pipeline.tradeoff import EXCHANGE_LABELS
 
-POUND = 0.45359237
-"""kg per pound (exact)."""
-CUBIC_INCH = 0.0254**3
+CUBIC_INCH = INCH**3
 """m³ per cubic inch (exact)."""
+KBTU_IN_MJ = BTU * 1e3 / 1e6
+"""MJ per thousand British thermal units."""
 
-_US = {"mass": ("lb", 1 / POUND), "volume": ("in³", 1 / CUBIC_INCH)}
+_US = {"mass": ("lb", 1 / POUND), "volume": ("in³", 1 / CUBIC_INCH), "energy": ("kBtu", 1 / KBTU_IN_MJ)}
 """Objectives shown in US units: (unit, factor from the SI value). Cost stays in USD and
 embodied carbon in kg CO2e, units used the world over."""
-_US_ALPHA = {"USD/kg": ("USD/lb", POUND), "USD/m³": ("USD/in³", CUBIC_INCH)}
+_US_ALPHA = {
+    "USD/kg": ("USD/lb", POUND),
+    "USD/m³": ("USD/in³", CUBIC_INCH),
+    "USD/MJ": ("USD/kBtu", KBTU_IN_MJ),
+}
 """Exchange constants shown in US units: (unit, factor from the SI value)."""
+
+
+def exchange_text(alpha: float, priced: str, units: str = "si") -> str:
+    """An exchange constant (USD per SI unit of ``priced``) as shown: "40 USD/kg", "18.1 USD/lb"."""
+    unit = EXCHANGE_LABELS[priced]
+    if units == "us" and unit in _US_ALPHA:
+        unit, factor = _US_ALPHA[unit]
+        alpha *= factor
+    return f"{format_number(alpha)} {unit}"
 
 
 def _display(frame: pd.DataFrame, units: str = "si") -> pd.DataFrame:
@@ -125,7 +140,7 @@ def render_tradeoff(
     front: pd.DataFrame,
     second: pd.DataFrame,
     fmt: str = "table",
-    exchange: float | str | None = None,
+    exchange: float | None = None,
     note: str = "",
     width: int | None = None,
     short: Mapping[str, str] | None = None,
@@ -135,15 +150,17 @@ def render_tradeoff(
     """The two frames of ``tradeoff_report`` as text (table, md, csv or json).
 
     ``csv`` gives the second frame only (it carries the front members' values);
-    ``json`` gives one object with both. ``note`` is what the study assumes (shown above
-    the tables, and as ``note`` in JSON). A terminal table fits ``width`` characters, naming
-    classes by ``short`` (id → short name) when it must; ``top`` keeps N rows of each.
+    ``json`` gives one object with both. ``exchange`` is the exchange constant in USD per
+    SI unit of the objective it prices (``TradeoffStudy.alpha``), shown in ``units``.
+    ``note`` is what the study assumes (shown above the tables, and as ``note`` in JSON).
+    A terminal table fits ``width`` characters, naming classes by ``short`` (id → short
+    name) when it must; ``top`` keeps N rows of each.
     """
     frames = tradeoff_frames(front, second, units, top)
     kind = "penalty" if "penalty" in second else "ranges"
     if fmt == "json":
         doc = {name: json.loads(render(f, "json")) for name, f in frames.items()}
-        return json.dumps(doc | ({"note": note} if note else {}), indent=2)
+        return json.dumps(doc | ({"note": text_in_units(note, units)} if note else {}), indent=2)
     if fmt == "csv":
         return render(frames[kind], "csv")
     body = "md" if fmt == "md" else "table"
@@ -154,7 +171,7 @@ def render_tradeoff(
         tables = _fitted_alike(frames, width, short, {"front": ("rank",), kind: ("on_hull", "rank")})
     lines = [
         f"Pareto front ({' vs '.join(objectives)}; all minimised): {len(front)} members{shown}",
-        *([f"note: {note}"] if note else []),
+        *([f"note: {text_in_units(note, units)}"] if note else []),
         "",
         tables["front"],
         "",
@@ -162,7 +179,7 @@ def render_tradeoff(
     if kind == "penalty":
         priced = [c for c in second.columns if c in EXCHANGE_LABELS]
         terms = " + ".join(f"α_{c}·{c}" for c in priced)
-        given = f" = {exchange}" if exchange is not None else ""
+        given = f" = {exchange_text(exchange, priced[0], units)}" if exchange is not None and priced else ""
         lines.append(f"Ranked by penalty Z = cost + {terms} [USD] (α{given})")
     else:
         lines.append(

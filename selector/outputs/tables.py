@@ -28,6 +28,8 @@ MASS_UNIT = {"si": "kg", "us": "lb"}
 _LENGTH_FACTOR = {"si": 1e3, "us": 1 / 0.0254}
 _MASS_FACTOR = {"si": 1.0, "us": 1 / 0.45359237}
 _STRESS = {"si": ("MPa", 1e-6), "us": ("ksi", 1 / 6.894757293168361e6)}
+ENERGY_UNIT = {"si": ("MJ", 1.0), "us": ("kBtu", 1e3 / display_units.BTU)}
+"""Embodied energy of a part: (unit, factor from MJ)."""
 ANGLE_UNIT = "deg"
 
 
@@ -188,7 +190,10 @@ def class_frame(table: pd.DataFrame, class_id: str, units: str = "si") -> pd.Dat
         )
     for text in ("note", "source", "origin"):
         if text in row:
-            records.append({"property": text, "low": row[text].iat[0], "high": "", "unit": ""})
+            value = row[text].iat[0]
+            if text == "note" and isinstance(value, str):  # the data's words, often a standard's
+                value = display_units.text_in_units(value, units, quoted=True)
+            records.append({"property": text, "low": value, "high": "", "unit": ""})
     return pd.DataFrame(records)
 
 
@@ -360,7 +365,7 @@ def column_headers(selection: Any, units: str = "si") -> dict[str, str]:
         columns.MASS: header(columns.MASS, mu),
         columns.COST: header(columns.COST, "USD"),
         columns.CO2: header(columns.CO2, "kg CO2e"),
-        columns.ENERGY: header(columns.ENERGY, "MJ"),
+        columns.ENERGY: header(columns.ENERGY, ENERGY_UNIT[units][0]),
         columns.DEFLECTION: header(columns.DEFLECTION, lu),
         columns.TWIST: header(columns.TWIST, ANGLE_UNIT),
         columns.STRESS: header(columns.STRESS, _STRESS[units][0]),
@@ -411,7 +416,7 @@ def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -
         out[heads[columns.COST]] = table[columns.COST].where(feasible)
         out[heads[columns.CO2]] = table[columns.CO2].where(feasible)  # kg CO2e in every system
         if columns.ENERGY in columns.sized_values(selection.spec.objective.minimize):
-            out[heads[columns.ENERGY]] = table[columns.ENERGY].where(feasible)
+            out[heads[columns.ENERGY]] = table[columns.ENERGY].where(feasible) * ENERGY_UNIT[units][1]
         out[heads[columns.DEFLECTION]] = table[columns.DEFLECTION].where(feasible) * lf
         if columns.TWIST in table and table[columns.TWIST].notna().any():
             out[heads[columns.TWIST]] = np.degrees(table[columns.TWIST].where(feasible))
@@ -423,6 +428,11 @@ def selection_frame(selection: Any, units: str = "si", show_all: bool = False) -
         out["warnings"] = _texts_in(table[columns.SIZE_WARNINGS], units)
     out["reasons"] = _texts_in(table[columns.REASONS], units)
     return out.reset_index(drop=True)
+
+
+def assumptions_in(selection: Any, units: str) -> list[str]:
+    """The Selection's modelling assumptions with any quantity they state in ``units``."""
+    return [display_units.text_in_units(a, units) for a in selection.assumptions]
 
 
 def _texts_in(texts: pd.Series, units: str) -> list[Any]:
@@ -490,7 +500,7 @@ def render_selection(
             if "rank" in r and r["rank"] is not None:
                 r["rank"] = int(r["rank"])
             if selection.assumptions:
-                r["assumptions"] = list(selection.assumptions)
+                r["assumptions"] = assumptions_in(selection, units)
             if selection.has_sizes:
                 r["caution"] = selection.caution
         return json.dumps(records, indent=2, allow_nan=False, default=_json_value)
@@ -514,11 +524,12 @@ def render_selection(
 
     lead = selection.derivations[0].constraint if selection.derivations else ""
     typed = selection.expression is not None
-    stated = "" if typed else f" in {index_shown(selection, units).label}{governs(lead)}"
-    head.append(f"merit index (maximise): M = {selection.index_text}{stated}")
+    unit = index_shown(selection, units).label
+    stated = f" in {unit}" if selection.index_exponents is not None else TYPED_IN_STORED_UNITS
+    head.append(f"merit index (maximise): M = {selection.index_text}{stated}{'' if typed else governs(lead)}")
     shown = selection.derivations[1:] if not typed else selection.derivations
     head += [f"also: {x.constraint} index M = {x.index_text}{governs(x.constraint)}" for x in shown]
-    head += [f"note: {n}" for n in selection.notes]
+    head += [f"note: {display_units.text_in_units(n, units)}" for n in selection.notes]
     ranked = "ranked by " + (f"{selection.ranked_by} of the sized part" if selection.sized else "merit index")
     foot = [
         f"{len(selection.shortlist)} candidates ({ranked}); {len(selection.rejected)} rejected"
@@ -527,7 +538,7 @@ def render_selection(
         + ("objective" if selection.sized else "index")
         + " range overlaps the leader's: too close to call",
         "",
-        *(f"assumes: {a}" for a in selection.assumptions),
+        *(f"assumes: {a}" for a in assumptions_in(selection, units)),
         *([""] if selection.assumptions else []),
         f"CAUTION: {selection.caution}",
     ]
@@ -535,6 +546,10 @@ def render_selection(
         head = [markdown_text(line) for line in head]
         foot = [markdown_text(line) for line in foot]
     return "\n".join([*wrap(head, width), "", body, "", *wrap(foot, width)])
+
+
+TYPED_IN_STORED_UNITS = ", its value in the table's stored units (GPa, MPa, kg/m³, USD/kg …)"
+"""What a typed index that is no single power product is reckoned in (it has no one unit)."""
 
 
 def _rank_layout(selection: Any, frame: pd.DataFrame, shown: pd.DataFrame) -> Layout:

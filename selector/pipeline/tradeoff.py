@@ -345,6 +345,21 @@ class TradeoffStudy:
     note: str = ""
     """What the study assumes, when it is worth saying (e.g. how sandwich pairs were sized)."""
 
+    @property
+    def priced(self) -> str | None:
+        """The objective the exchange constant prices (None without one)."""
+        if self.exchange is None:
+            return None
+        return next((c for c in self.second.columns if c in EXCHANGE_UNITS), None)
+
+    @property
+    def alpha(self) -> float | None:
+        """The exchange constant in USD per SI unit of ``priced`` (USD/kg, USD/m³ ...); None without one."""
+        priced = self.priced
+        if priced is None or self.exchange is None:
+            return None
+        return _exchange_value(priced, self.exchange, "--exchange")
+
 
 def tradeoff_report(
     selection: Any, other: str = "cost", exchange: float | str | None = None

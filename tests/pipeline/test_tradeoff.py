@@ -323,5 +323,8 @@ def test_render_tradeoff_formats():
     parsed = pd.read_csv(io.StringIO(render_tradeoff(front, ranges, "csv")))
     assert list(parsed["id"]) == list(ranges["id"])
     _, ranked = tradeoff_report(sel, "cost", "40 USD/kg")
-    md = render_tradeoff(front, ranked, "md", exchange="40 USD/kg")
+    md = render_tradeoff(front, ranked, "md", exchange=40.0)
     assert "penalty [USD]" in md and "α = 40 USD/kg" in md
+    # 40 USD/kg × 0.45359237 kg/lb = 18.14 USD/lb (NIST SP 811: 1 lb = 0.45359237 kg exactly)
+    us = render_tradeoff(front, ranked, "table", exchange=40.0, units="us")
+    assert "α = 18.1 USD/lb" in us and "USD/kg" not in us
