@@ -69,7 +69,9 @@ EXTERNAL_PRESSURE_ASSUMPTIONS: tuple[str, ...] = (
     "perfectly round tube: out-of-roundness is not modelled, and real tubes buckle below the "
     "classical pressure; the safety factor must cover it (check the design code's collapse curve)",
     "buckling and crushing are checked apart: where the elastic buckling stress p_cr·r/t is "
-    "near σ_c the two interact and the collapse pressure falls below both",
+    "near σ_c the two interact and the collapse pressure falls below both; a wall whose elastic "
+    "buckling stress is above σ_c/2 is flagged with a Johnson-type estimate of its collapse "
+    "stress (the column's parabola, by analogy)",
     "no end caps: their mass, their stresses and the bending where they join the shell are not included",
 )
 """What a cylinder under external pressure assumes beyond its equations."""

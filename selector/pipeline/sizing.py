@@ -29,6 +29,7 @@ from selector.mechanics.column_buckling import euler_overestimate, is_stocky
 from selector.mechanics.loadcases import LoadCase
 from selector.mechanics.objectives import OBJECTIVE_FACTORS
 from selector.mechanics.product_forms import WIRE_CLASSES, WIRE_MAX_DIAMETER, minimum_walls
+from selector.mechanics.tube_buckling import yield_interaction_note
 from selector.numeric import bisect_log
 from selector.pipeline import columns
 from selector.pipeline.derive import Derivation
@@ -431,6 +432,9 @@ def _one_part(
             f"thick wall (r/t = {radius / t:.2g}, below {VESSEL_THIN_WALL_RATIO:g}): the thin-wall "
             "stress p·r/t understates the stress at the bore; check with Lamé's thick-wall relations"
         )
+    if case.kind.vessel and "buckling" in util and radius and t:
+        note = yield_interaction_note(props.get("E", math.nan), props.get("sigma_c", math.nan), t, radius)
+        warnings += [note] if note else []
     return {
         "feasible": feasible,
         "dimensions": dims,

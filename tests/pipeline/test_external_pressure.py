@@ -9,6 +9,7 @@ from selector.cli import cli
 from selector.errors import InputError, SpecError
 from selector.inputs.spec import spec_from_dict
 from selector.mechanics.loadcases import PLATE_NU, load_case, part_kind, with_requirement
+from selector.mechanics.tube_buckling import collapse_stress, elastic_buckling_stress, yield_interaction_note
 from selector.pipeline.derive import derive
 from selector.pipeline.selection import select
 from tests.conftest import make_table
@@ -96,6 +97,8 @@ def test_a_buckling_governed_tube_is_sized_to_bresses_pressure():
     assert row["utilisation"]["buckling"] == pytest.approx(1.0, rel=1e-9)
     assert row["utilisation"]["strength"] == pytest.approx(38.02 / 250, rel=1e-3)
     assert row["mass"] == pytest.approx(3.243, rel=1e-3)
+    # Its elastic buckling stress, 38 MPa, is far below σ_c/2: no interaction to flag.
+    assert not any("Johnson-type" in w for w in row["size_warnings"])
 
 
 def test_a_strength_governed_tube_is_sized_to_the_crushing_stress():
@@ -107,6 +110,11 @@ def test_a_strength_governed_tube_is_sized_to_the_crushing_stress():
     assert row["governing"] == "strength"
     assert row["utilisation"]["strength"] == pytest.approx(1.0, rel=1e-9)
     assert row["utilisation"]["buckling"] == pytest.approx(0.711, rel=1e-3)
+    # At 4 mm the elastic buckling stress E/3.64·(t/r)² = 200e9/3.64·0.08² = 351.6 MPa is above
+    # σ_c/2, and the Johnson-type parabola σ_c − σ_c²/(4σ_E) = 250 − 62500/1406.6 = 205.6 MPa puts
+    # collapse 18 % below σ_c, under the working 250 MPa: the part is flagged (worked by hand).
+    (note,) = [w for w in row["size_warnings"] if "Johnson-type" in w]
+    assert "351.6 MPa" not in note and "352 MPa" in note and "206 MPa" in note and "18%" in note
 
 
 def test_a_given_wall_is_checked_against_both_limits():
@@ -135,6 +143,19 @@ def test_the_internal_load_is_the_default_and_sizes_on_yield():
     c = select(spec_from_dict(_tube("1 MPa", [{"type": "strength", "safety_factor": 1.0}])), table)
     assert c.shortlist["dimensions"].iat[0]["t"] == pytest.approx(1e-3, rel=1e-9)
     assert c.shortlist["utilisation"].iat[0]["strength"] == pytest.approx(1.0)
+
+
+def test_the_collapse_stress_follows_the_columns_parabola_above_half_the_strength():
+    # σ_E = E/(4(1−ν²))·(t/r)²: 200e9/3.64·(0.004/0.05)² = 351.6 MPa (worked by hand); the
+    # Johnson parabola σ_c − σ_c²/(4σ_E) meets σ_E at σ_c/2 (Shigley, columns; from memory).
+    assert elastic_buckling_stress(200e9, 4e-3, 0.05) == pytest.approx(351.65e6, rel=1e-4)
+    assert collapse_stress(200e9, 250e6, 4e-3, 0.05) == pytest.approx(205.57e6, rel=1e-4)
+    assert collapse_stress(200e9, 1e12, 4e-3, 0.05) == elastic_buckling_stress(200e9, 4e-3, 0.05)
+    # Far above σ_c the parabola is within 5 % of σ_c (crushing governs alone): no note; nor
+    # without data.
+    assert yield_interaction_note(200e9, 20e6, 4e-3, 0.05) is None
+    assert yield_interaction_note(200e9, float("nan"), 4e-3, 0.05) is None
+    assert yield_interaction_note(200e9, 250e6, 4e-3, 0.05) is not None
 
 
 # --------------------------------------------------------------------------- what kind of part it is
