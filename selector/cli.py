@@ -410,7 +410,9 @@ def section(shape: str, dims: tuple[str, ...], fmt: str | None, units: str | Non
 @click.option("--spec", type=click.Path(), default=None, help="Show the screens, shortlist, index of SPEC.")
 @click.option("--index", default=None, help='Merit index for the index lines, e.g. "E^0.5/rho".')
 @click.option("--through", default=None, help="Class id the index line passes through.")
-@click.option("--at", "at_value", type=float, default=None, help="Index value of the line (chart units).")
+@click.option(
+    "--at", "at_value", type=float, default=None, help="Index value of the line, in the table's index unit."
+)
 @click.option("--top", type=click.IntRange(min=0), default=5, show_default=True, help="Name the best N.")
 @click.option("--title", default=None, help="Chart title.")
 @click.option("--materials", "files", multiple=True, type=click.Path(), help="Add a materials file.")

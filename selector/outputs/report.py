@@ -331,25 +331,12 @@ def _tradeoff_view(selection: Any) -> dict[str, Any]:
 
 
 def _property_chart(selection: Any, units: str) -> Any:
-    """The property chart; a typed monomial index draws its own index line."""
+    """The property chart; a typed monomial index draws its own index line, in the table's units."""
     try:
-        from selector.outputs.charts import chart_for_selection, default_axes, property_chart
+        from selector.outputs.charts import chart_for_selection
 
         typed = selection.expression if selection.index_exponents else None
-        if selection.derivations:
-            return chart_for_selection(selection, units=units, index=typed)
-        # Ranked by a typed index alone: no derivation to take the axes from.
-        x, y = default_axes(selection.index_exponents) if typed else ("rho", "E")
-        return property_chart(
-            selection.table,
-            x,
-            y,
-            units=units,
-            index=typed,
-            screens=selection.screens,
-            highlight=[str(v) for v in selection.shortlist["id"].head(5)],
-            title=selection.spec.title,
-        )
+        return chart_for_selection(selection, units=units, index=typed)
     except (ImportError, SelectorError) as exc:
         return {"note": f"the property chart could not be drawn: {exc}"}
 

@@ -144,8 +144,9 @@ def test_axis_titles_carry_units_si_and_us():
     assert "kg/m³" in si.layout.xaxis.title.text and "GPa" in si.layout.yaxis.title.text
     us = property_chart(classes(), "rho", "E", units="us")
     assert "lb/in³" in us.layout.xaxis.title.text and "Msi" in us.layout.yaxis.title.text
+    # an expression axis reads in the unit of the same index in the shortlist: density in Mg/m³
     expr = property_chart(classes(), "price*rho", "sigma_y")
-    assert "(USD/kg)·(kg/m³)" in expr.layout.xaxis.title.text
+    assert "(USD/kg)·(Mg/m³)" in expr.layout.xaxis.title.text
 
 
 def test_exactly_one_box_per_class_spanning_its_ranges():
@@ -190,7 +191,8 @@ def test_expression_axis_spans_the_interval_of_the_expression():
     box = next(t for t in role(fig, "boxes") if "alu" in t.meta["ids"])
     seg = segments(box.x, box.y)[box.meta["ids"].index("alu")]
     xs = [p[0] for p in seg]
-    assert (min(xs), max(xs)) == pytest.approx((2 * 2600, 3 * 2800))  # interval of a product, by hand
+    # interval of a product, by hand, with density in Mg/m³ (1 Mg/m³ = 1000 kg/m³, SI prefixes)
+    assert (min(xs), max(xs)) == pytest.approx((2 * 2.6, 3 * 2.8))
 
 
 def test_classes_without_data_are_left_out_and_named():
@@ -322,26 +324,27 @@ def test_index_line_passes_through_the_chosen_class():
     gy = math.sqrt(table.loc["wood", "E_low"] * table.loc["wood", "E_high"])
     x0, y0 = main.x[0], main.y[0]
     assert (math.log10(gy) - math.log10(y0)) / (math.log10(gx) - math.log10(x0)) == pytest.approx(2.0)
-    assert main.meta["value"] == pytest.approx(math.sqrt(gy) / gx)
+    assert main.meta["value"] == pytest.approx(math.sqrt(gy) / (gx / 1000))  # ρ in Mg/m³
 
 
 def test_index_lines_at_a_value_step_by_ten_and_are_labelled():
-    fig = property_chart(classes(), "rho", "E", index="E^0.5/rho", at=0.003)
+    # at= is in the index's unit, GPa^(1/2)/(Mg/m³): 3 there is 0.003 GPa^(1/2)·m³/kg
+    fig = property_chart(classes(), "rho", "E", index="E^0.5/rho", at=3)
     lines = role(fig, "index-line")
     values = sorted(t.meta["value"] for t in lines)
-    assert 0.003 in [pytest.approx(v) for v in values]
+    assert 3 in [pytest.approx(v) for v in values]
     ratios = [b / a for a, b in itertools.pairwise(values)]
     assert ratios == [pytest.approx(10.0)] * len(ratios)
-    for trace in lines:  # every point of a line has the line's index value
+    for trace in lines:  # every point of a line has the line's index value (ρ drawn in kg/m³)
         for xv, yv in zip(trace.x, trace.y, strict=True):
-            assert math.sqrt(yv) / xv == pytest.approx(trace.meta["value"])
+            assert 1000 * math.sqrt(yv) / xv == pytest.approx(trace.meta["value"])
     labels = [a.text for a in fig.layout.annotations if (a.name or "").startswith("index-label")]
     assert len(labels) == len(lines)
-    assert any("0.003" in t for t in labels)
+    assert any("= 3," in t or t.endswith("= 3") for t in labels)
 
 
 def test_the_higher_index_side_is_shaded():
-    fig = property_chart(classes(), "rho", "E", index="E^0.5/rho", at=0.003)
+    fig = property_chart(classes(), "rho", "E", index="E^0.5/rho", at=3)  # 0.003 with ρ in kg/m³
     (side,) = role(fig, "index-side")
     points = [(x, y) for x, y in zip(side.x, side.y, strict=True)]
     cx = 10 ** np.mean([math.log10(p[0]) for p in points[:-1]])
@@ -497,8 +500,9 @@ def test_chart_for_selection_uses_the_derived_index_and_shortlist():
     assert ring.meta["ids"] == list(selection.shortlist["id"].head(2))
     main = next(t for t in role(fig, "index-line") if t.meta["main"])
     best = selection.shortlist.iloc[0]
-    assert main.meta["value"] == pytest.approx(
-        math.sqrt(math.sqrt(best["E_low"] * best["E_high"])) / math.sqrt(best["rho_low"] * best["rho_high"])
+    assert main.meta["value"] == pytest.approx(  # ρ in Mg/m³ (1 Mg/m³ = 1000 kg/m³)
+        math.sqrt(math.sqrt(best["E_low"] * best["E_high"]))
+        / (math.sqrt(best["rho_low"] * best["rho_high"]) / 1000)
     )
     grey = {
         cid

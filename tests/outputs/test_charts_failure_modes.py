@@ -72,10 +72,11 @@ def test_the_chart_draws_the_index_line_of_the_governing_constraint(kind):
     for trace in drawn:
         (x0, x1), (y0, y1) = trace.x, trace.y
         assert (math.log10(y1) - math.log10(y0)) / (math.log10(x1) - math.log10(x0)) == pytest.approx(slope)
-    # the main line passes through the best-ranked class at its geometric-mean marker
+    # the main line passes through the best-ranked class at its geometric-mean marker; its
+    # value reads with density in Mg/m³ (1 Mg/m³ = 1000 kg/m³, SI Brochure, 9th ed., prefixes)
     main = next(t for t in drawn if t.meta["main"])
     best = selection.shortlist.iloc[0]
-    x = math.sqrt(best["rho_low"] * best["rho_high"])
+    x = math.sqrt(best["rho_low"] * best["rho_high"]) / 1000
     y = math.sqrt(best[f"{prop}_low"] * best[f"{prop}_high"])
     power = 2 / 3 if slope == 1.5 else 1 / 2
     assert main.meta["value"] == pytest.approx(y**power / x)

@@ -270,12 +270,42 @@ def test_the_index_line_goes_through_the_chosen_class_or_at_a_typed_value(start,
     view = refresh(start, replace(controls, chosen="lead", line_mode="class"))
     notes = [a.text for a in view.figure.layout.annotations if a.text and "through" in a.text]
     assert any("Lead" in t for t in notes)
-    at = refresh(start, replace(controls, line_mode="value", line_value="0.002"))
+    at = refresh(start, replace(controls, line_mode="value", line_value="2"))
     main = [t for t in at.figure.data if (t.meta or {}).get("role") == "index-line" and t.meta["main"]]
-    assert main and main[0].meta["value"] == pytest.approx(0.002)
+    assert main and main[0].meta["value"] == pytest.approx(2.0)
     bad = refresh(start, replace(controls, line_mode="value", line_value="steep"))
     assert "not an index value" in bad.messages["line"]
     assert bad.figure is not None
+
+
+def _index_cells(view) -> dict[str, str]:
+    """Each shortlist row's index cell (the fifth column), by class id."""
+    out = {}
+    for row in _walk(view.shortlist):
+        if isinstance(row, html.Tr) and hasattr(row, "data-id"):
+            out[getattr(row, "data-id")] = _text(row.children[4])
+    return out
+
+
+@pytest.mark.parametrize("units", ["si", "us"])
+def test_the_index_line_reads_the_shortlists_index_and_a_typed_value_in_that_unit(start, controls, units):
+    from selector.outputs.tables import index_shown
+
+    view = refresh(start, replace(controls, units=units))
+    expected = _expected(lambda data: data.update(units=units))
+    leader = expected.shortlist.iloc[0]
+    shown = index_shown(expected, units)
+    main = [t for t in view.figure.data if (t.meta or {}).get("role") == "index-line" and t.meta["main"]]
+    assert main[0].meta["value"] == pytest.approx(leader["index"] * shown.factor, rel=1e-12)
+    cell = _index_cells(view)[leader["id"]]
+    through = next(a.text for a in view.figure.layout.annotations if a.text and "through" in a.text)
+    assert f"= {cell}," in through  # the chart's label and the table print one number
+    # the value typed in the unit of the table's index column puts the line through the leader
+    typed = refresh(start, replace(controls, units=units, line_mode="value", line_value=cell))
+    line = [t for t in typed.figure.data if (t.meta or {}).get("role") == "index-line" and t.meta["main"]]
+    assert line[0].meta["value"] == pytest.approx(float(cell))
+    assert float(cell) == pytest.approx(main[0].meta["value"], rel=5e-3)  # three figures
+    assert not typed.messages["line"]
 
 
 def test_the_chosen_class_shows_its_data_and_sources(start, controls):

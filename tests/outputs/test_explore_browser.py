@@ -256,6 +256,32 @@ OVERFLOW_JS = """() => {
 """Every panel and control that shows, as (what, why) where it overflows its container or the window."""
 
 
+SPLIT_WORDS_JS = """() => {
+  const split = [];
+  for (const th of document.querySelectorAll("table th")) {
+    if (th.offsetParent === null) continue;
+    const walker = document.createTreeWalker(th, NodeFilter.SHOW_TEXT);
+    for (let node = walker.nextNode(); node; node = walker.nextNode()) {
+      const text = node.textContent;
+      const words = /\\S+/g;
+      for (let m = words.exec(text); m; m = words.exec(text)) {
+        const range = document.createRange();
+        const tops = new Set();
+        for (let i = m.index; i < m.index + m[0].length; i++) {
+          range.setStart(node, i);
+          range.setEnd(node, i + 1);
+          const r = range.getBoundingClientRect();
+          if (r.width > 0) tops.add(Math.round(r.top));
+        }
+        if (tops.size > 1) split.push(`${th.closest("table").id || "table"}: ${m[0]}`);
+      }
+    }
+  }
+  return split;
+}"""
+"""Every table header word (text between spaces) whose letters sit on more than one line."""
+
+
 def _fresh(browser: Any, url: str, width: int = 1440, height: int = 1000):
     """A new page on ``url`` (requests to the server only), once the shortlist and chart are drawn."""
     from contextlib import contextmanager
@@ -443,6 +469,16 @@ def test_nothing_is_clipped_at_common_window_sizes(browser, width, height, spec,
             pg.evaluate("document.querySelectorAll('details').forEach(d => { d.open = true; })")
             pg.wait_for_function("() => [...document.querySelectorAll('details')].every(d => d.open)")
             assert pg.evaluate(OVERFLOW_JS) == []
+            assert pg.evaluate(SPLIT_WORDS_JS) == []
+            pg.locator("#units input[value=us]").check()  # US headers: "index (Msi^(1/2)/(lb/in³))"
+            pg.wait_for_function("() => document.querySelector('#shortlist-table').innerText.includes('lb')")
+            assert pg.evaluate(SPLIT_WORDS_JS) == []
+            assert pg.evaluate(OVERFLOW_JS) == []
+            # the check sees a split word: squeezed to 20 px, a header's words must overflow, not break
+            pg.add_style_tag(content="table.grid th { width: 20px; max-width: 20px; }")
+            assert pg.evaluate(SPLIT_WORDS_JS) == []
+            pg.add_style_tag(content="table.grid th { overflow-wrap: anywhere; }")
+            assert pg.evaluate(SPLIT_WORDS_JS) != []
             caution = pg.locator("header .caution-banner")
             assert "certified design-allowable data" in caution.inner_text()
             assert "licensed engineering review" in caution.inner_text()

@@ -6,11 +6,14 @@ marker at its geometric mean (the midpoint on a linear axis). Boxes are drawn as
 filled trace per family (closed paths separated by ``None``) so a click on the
 family's legend entry hides its boxes and markers together.
 
-Axis values are shown in the units asked for: ``"si"`` gives the stored engineering
-units (GPa, MPa, kg/m³, °C, USD/kg), ``"us"`` the US customary units of the property
-registry. An axis may be a property symbol (``"E"``) or an index expression
-(``"price*rho"``); an expression is evaluated over the displayed values of its
-properties and its range is its interval over the classes' ranges.
+Units come from ``outputs.display_units``, the one place that chooses them, in the
+system asked for (``"si"`` or ``"us"``). A property axis is shown in its property's
+unit (hover text in the unit that suits each range: a rubber's modulus in MPa). A
+monomial expression axis (``"price*rho"``) and the index line are shown in the unit
+the shortlist table gives the same index (density in Mg/m³), so the line through the
+leader reads the leader's number in the table. An expression's range is its interval
+over the classes' ranges; one that is no monomial is evaluated over its properties'
+displayed values.
 
 The package is split by idea: ``style`` (palette), ``markup`` (chart text), ``axes``,
 ``classes`` (boxes and markers), ``labels`` (shortlist labels), ``guides`` (index lines

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import math
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field
 from typing import Any
@@ -13,13 +14,15 @@ import plotly.graph_objects as go
 from selector.errors import InputError
 from selector.inputs.expressions import Expression, parse
 from selector.inputs.properties import DERIVED_PROPERTIES, PROPERTIES, property_of, typical_value
-from selector.inputs.units import convert
+from selector.inputs.units import convert, format_number
+from selector.outputs import display_units
 from selector.outputs.charts.markup import (
     _esc,
     _expression_html,
     _monomial_html,
     _needs_brackets,
     symbol_html,
+    unit_html,
 )
 from selector.outputs.charts.style import UNIT_SYSTEMS
 
@@ -37,6 +40,8 @@ class AxisSpec:
         log: plotted on a log scale.
         units: ``"si"`` or ``"us"``.
         coef, powers: the axis as ``coef · Π symbol^power`` when it is a monomial, else None.
+        factor: the shown value per value in stored units; NaN where no factor converts
+            (an offset unit such as °F, or an expression that is no monomial).
     """
 
     text: str
@@ -49,6 +54,7 @@ class AxisSpec:
     coef: float = 1.0
     powers: Mapping[str, float] | None = None
     expression: Expression | None = field(default=None, compare=False, repr=False)
+    factor: float = 1.0
 
     @property
     def is_property(self) -> bool:
@@ -69,31 +75,103 @@ def _check_units(units: str) -> str:
     return units
 
 
-def _display_label(symbol: str, units: str) -> str:
+def property_shown(symbol: str, units: str) -> display_units.Shown:
+    """The unit a property is shown in (``display_units``) and its factor from the stored unit.
+
+    Where ``display_units`` leaves the conversion to pint (NaN factor), the factor is
+    pint's when the conversion is a plain scaling (kg/m³ to lb/in³) and stays NaN for
+    an offset unit (°C to °F).
+    """
+    shown = display_units.property_unit(symbol, units)
+    if math.isfinite(shown.factor):
+        return shown
     prop = property_of(symbol)
-    label = prop.us_label if units == "us" else prop.label
+    zero, one, two = convert(np.array([0.0, 1.0, 2.0]), prop.stored, prop.us, symbol)
+    scaling = abs(zero) <= 1e-12 * abs(one) and math.isclose(two, 2 * one)
+    return display_units.Shown(shown.label, float(one) if scaling else math.nan)
+
+
+def _unit_label(symbol: str, units: str) -> str:
+    label = property_shown(symbol, units).label
     return "" if label == "–" else label
 
 
 def _units_html(powers: Mapping[str, float], units: str) -> str:
     """The unit of ``Π symbol^power`` built from the properties' display labels."""
     terms = [
-        (_esc(_display_label(s, units)), p, _needs_brackets(_display_label(s, units)))
+        (_esc(_unit_label(s, units)), p, _needs_brackets(_unit_label(s, units)))
         for s, p in powers.items()
-        if _display_label(s, units)
+        if _unit_label(s, units)
     ]
     return _monomial_html(terms) if terms else ""
 
 
-def _expression_unit(expr: Expression, powers: Mapping[str, float] | None, units: str) -> str:
-    if powers is not None:
-        return _units_html(powers, units)
-    parts = [f"{symbol_html(s)} in {_esc(_display_label(s, units))}" for s in sorted(expr.symbols)]
-    return "with " + ", ".join(p for p in parts if not p.endswith(" in "))
+def monomial_unit(
+    powers: Mapping[str, float], units: str, values: np.ndarray | None = None
+) -> tuple[str, float]:
+    """(unit as chart HTML, factor from stored units) of ``Π symbol^power``.
+
+    The unit is the one ``display_units.index_unit`` gives an index of these powers
+    (``values``, in stored units, choose an energy unit's prefix), so a chart and the
+    shortlist table show one number. Where it has no factor (a US unit pint converts)
+    the unit is built from the properties' own display units.
+    """
+    shown = display_units.index_unit(powers, units, values)
+    if math.isfinite(shown.factor):
+        return unit_html(shown.label), shown.factor
+    factor = math.prod(property_shown(s, units).factor ** p for s, p in powers.items())
+    return _units_html(powers, units), factor
 
 
-def axis_spec(text: str, units: str = "si", where: str = "axis") -> AxisSpec:
+def _stored_values(table: pd.DataFrame, symbol: str) -> tuple[np.ndarray, np.ndarray]:
+    """Low and high of one property in stored units.
+
+    Raises:
+        InputError: a derived property (``sigma_R``) the table does not carry.
+    """
+    prop = property_of(symbol)
+    if prop.low not in table.columns:
+        raise InputError(
+            "chart",
+            f"{symbol} ({prop.name}) is computed for one requirement and this table has none",
+            "a chart of a spec with a fatigue constraint at a load ratio (--spec), or stored properties",
+        )
+    low = table[prop.low].to_numpy(dtype=float)
+    high = table[prop.high].to_numpy(dtype=float)
+    return np.minimum(low, high), np.maximum(low, high)
+
+
+def shown_value(symbol: str, value: np.ndarray | float, units: str) -> np.ndarray:
+    """A property's value(s) in stored units converted to the unit its axis shows."""
+    shown = property_shown(symbol, units)
+    if math.isfinite(shown.factor):
+        return np.asarray(value, dtype=float) * shown.factor
+    prop = property_of(symbol)
+    return convert(value, prop.stored, prop.us, symbol)
+
+
+def _shown_values(table: pd.DataFrame, symbol: str, units: str) -> tuple[np.ndarray, np.ndarray]:
+    low, high = _stored_values(table, symbol)
+    return shown_value(symbol, low, units), shown_value(symbol, high, units)
+
+
+def monomial_typical(table: pd.DataFrame, coef: float, powers: Mapping[str, float]) -> np.ndarray:
+    """``coef · Π symbol^power`` at every class's typical values (stored units)."""
+    out = np.full(len(table), float(coef))
+    with np.errstate(all="ignore"):
+        for s, p in powers.items():
+            out = out * typical_value(*_stored_values(table, s), True) ** p
+    return out
+
+
+def axis_spec(
+    text: str, units: str = "si", where: str = "axis", table: pd.DataFrame | None = None
+) -> AxisSpec:
     """Read an axis: a property symbol or an index expression.
+
+    A property is shown in its ``display_units`` unit, a monomial expression in the unit
+    ``display_units`` gives an index of its powers; with ``table`` an energy-type
+    expression's prefix is chosen from the classes' values.
 
     Raises:
         ExpressionError: the text is not a valid expression (the message points at the column).
@@ -110,11 +188,12 @@ def axis_spec(text: str, units: str = "si", where: str = "axis") -> AxisSpec:
             (text,),
             symbol_html(text),
             prop.name,
-            _esc(_display_label(text, units)),
+            _esc(_unit_label(text, units)),
             prop.log,
             units,
             1.0,
             {text: 1.0},
+            factor=property_shown(text, units).factor,
         )
     expr = parse(text)
     if not expr.symbols:
@@ -122,57 +201,82 @@ def axis_spec(text: str, units: str = "si", where: str = "axis") -> AxisSpec:
             where, f"{text!r} uses no property", "an expression of property symbols, e.g. price*rho"
         )
     mono = expr.monomial()
-    coef, powers = (mono[0], dict(mono[1])) if mono is not None else (1.0, None)
+    if mono is None:
+        parts = [f"{symbol_html(s)} in {_esc(_unit_label(s, units))}" for s in sorted(expr.symbols)]
+        unit = "with " + ", ".join(p for p in parts if not p.endswith(" in "))
+        coef, powers, factor = 1.0, None, math.nan
+    else:
+        coef, powers = mono[0], {s: float(p) for s, p in mono[1].items()}
+        dimensioned = {s: p for s, p in powers.items() if _unit_label(s, units)}
+        values = None if table is None else monomial_typical(table, coef, powers)
+        unit, factor = monomial_unit(dimensioned, units, values) if dimensioned else ("", 1.0)
     return AxisSpec(
         text,
         tuple(sorted(expr.symbols)),
         _expression_html(expr.root),
         text,
-        _expression_unit(expr, powers, units),
+        unit,
         True,
         units,
         coef,
         powers,
         expr,
+        factor,
     )
 
 
-def _display_values(table: pd.DataFrame, symbol: str, units: str) -> tuple[np.ndarray, np.ndarray]:
-    """Low and high of one property in display units.
-
-    Raises:
-        InputError: a derived property (``sigma_R``) the table does not carry.
-    """
-    prop = property_of(symbol)
-    if prop.low not in table.columns:
-        raise InputError(
-            "chart",
-            f"{symbol} ({prop.name}) is computed for one requirement and this table has none",
-            "a chart of a spec with a fatigue constraint at a load ratio (--spec), or stored properties",
-        )
-    low = table[prop.low].to_numpy(dtype=float)
-    high = table[prop.high].to_numpy(dtype=float)
-    if units == "us":
-        low, high = convert(low, prop.stored, prop.us, symbol), convert(high, prop.stored, prop.us, symbol)
-    return np.minimum(low, high), np.maximum(low, high)
-
-
-def _display_value(symbol: str, value: float, units: str) -> float:
-    prop = property_of(symbol)
-    return float(convert(value, prop.stored, prop.us, symbol)) if units == "us" else float(value)
-
-
 def axis_values(table: pd.DataFrame, axis: AxisSpec) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-    """(low, high, centre) of the axis quantity for every class, in display units."""
+    """(low, high, centre) of the axis quantity for every class, in display units.
+
+    A property is converted on its own; a monomial expression is evaluated in stored
+    units and scaled by the axis factor; an expression that is no monomial is
+    evaluated over its properties' displayed values.
+    """
     if axis.is_property:
-        low, high = _display_values(table, axis.text, axis.units)
+        low, high = _shown_values(table, axis.text, axis.units)
     else:
         assert axis.expression is not None
+        scaled = math.isfinite(axis.factor)
         lows, highs = {}, {}
         for s in axis.symbols:
-            lows[s], highs[s] = _display_values(table, s, axis.units)
+            values = _stored_values(table, s) if scaled else _shown_values(table, s, axis.units)
+            lows[s], highs[s] = values
         low, high = axis.expression.interval(lows, highs)
+        if scaled:
+            low, high = low * axis.factor, high * axis.factor
     return low, high, typical_value(low, high, axis.log)
+
+
+def hover_ranges(table: pd.DataFrame, axis: AxisSpec, low: np.ndarray, high: np.ndarray) -> list[str]:
+    """Each class's range on the axis as hover text: a property in the unit that suits its size.
+
+    ``low`` and ``high`` are the axis values (display units); a property whose range is
+    small beside the axis unit (a rubber's modulus on a GPa axis) is shown in a smaller
+    unit chosen by ``display_units.range_unit``.
+    """
+    texts = range_texts(low, high, axis.unit)
+    if not axis.is_property or not math.isfinite(axis.factor):
+        return texts
+    stored_low, stored_high = _stored_values(table, axis.text)
+    for i, top in enumerate(stored_high):
+        shown = display_units.range_unit(axis.text, float(top), axis.units)
+        if math.isfinite(shown.factor) and shown.label != property_shown(axis.text, axis.units).label:
+            texts[i] = _range_text(stored_low[i] * shown.factor, top * shown.factor, _esc(shown.label))
+    return texts
+
+
+def _range_text(low: float, high: float, unit: str) -> str:
+    body = (
+        format_number(low)
+        if np.isclose(low, high, rtol=1e-12)
+        else f"{format_number(low)}–{format_number(high)}"
+    )
+    return f"{body} {unit}".rstrip()
+
+
+def range_texts(low: np.ndarray, high: np.ndarray, unit: str) -> list[str]:
+    """Every class's low–high range as hover text in ``unit`` (chart HTML)."""
+    return [_range_text(lo, hi, unit) for lo, hi in zip(low.tolist(), high.tolist(), strict=True)]
 
 
 @dataclass(frozen=True)

@@ -11,7 +11,6 @@ import pandas as pd
 import plotly.graph_objects as go
 
 from selector.inputs.properties import FAMILIES
-from selector.inputs.units import format_number
 from selector.outputs.charts.markup import _esc
 from selector.outputs.charts.style import (
     _STATUS_TEXT,
@@ -38,15 +37,6 @@ class _Classes:
     y_low: np.ndarray
     y_high: np.ndarray
     y_mid: np.ndarray
-
-
-def _range_text(low: float, high: float, unit: str) -> str:
-    body = (
-        format_number(low)
-        if np.isclose(low, high, rtol=1e-12)
-        else f"{format_number(low)}–{format_number(high)}"
-    )
-    return f"{body} {unit}".rstrip()
 
 
 def _hover(
@@ -81,10 +71,13 @@ def _gather(
     y: tuple[np.ndarray, np.ndarray, np.ndarray],
     x_log: bool,
     y_log: bool,
-    x_hover: tuple[str, str],
-    y_hover: tuple[str, str],
+    x_hover: tuple[str, list[str]],
+    y_hover: tuple[str, list[str]],
 ) -> tuple[_Classes, list[str]]:
-    """The drawable classes and the ids of those that cannot be drawn (no data, or ≤ 0 on a log axis)."""
+    """The drawable classes and the ids of those that cannot be drawn (no data, or ≤ 0 on a log axis).
+
+    ``x_hover`` and ``y_hover`` are each axis's label and every class's range as hover text.
+    """
     ids = (
         [str(v) for v in _column(table, "id", "")] if "id" in table.columns else [str(i) for i in table.index]
     )
@@ -109,8 +102,8 @@ def _gather(
             reasons[i],
             ranks[i],
             (
-                f"{x_hover[0]}: {_range_text(x[0][i], x[1][i], x_hover[1])}",
-                f"{y_hover[0]}: {_range_text(y[0][i], y[1][i], y_hover[1])}",
+                f"{x_hover[0]}: {x_hover[1][i]}",
+                f"{y_hover[0]}: {y_hover[1][i]}",
             ),
         )
         for i in keep

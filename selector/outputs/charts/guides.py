@@ -14,7 +14,7 @@ from selector.errors import InputError
 from selector.inputs.expressions import parse
 from selector.inputs.properties import DERIVED_PROPERTIES, PROPERTIES
 from selector.inputs.units import format_number
-from selector.outputs.charts.axes import AxisSpec, _display_value, _log_or_linear, _to_data, _units_html
+from selector.outputs.charts.axes import AxisSpec, _log_or_linear, _to_data, monomial_unit, shown_value
 from selector.outputs.charts.markup import (
     _esc,
     _expression_html,
@@ -34,9 +34,10 @@ class IndexLine:
 
     Attributes:
         alpha, beta: powers of the x- and y-axis quantities.
-        coef: constant factor (display units).
+        coef: constant factor, from the axes' display units to the index's.
         label: the index written for the chart (HTML).
-        unit: its unit, built from the properties' display units (HTML).
+        unit: the unit the index is shown in (HTML), the shortlist table's
+            (``display_units.index_unit``), so a line's value is the number the table shows.
     """
 
     alpha: float
@@ -91,16 +92,19 @@ def _index_powers(index: Any) -> tuple[float, dict[str, float], str]:
     return 1.0, powers, text
 
 
-def index_line(index: Any, x: AxisSpec, y: AxisSpec) -> IndexLine:
+def index_line(index: Any, x: AxisSpec, y: AxisSpec, values: np.ndarray | None = None) -> IndexLine:
     """Write an index as ``coef · X^alpha · Y^beta`` over the two plotted axis quantities.
 
     With X = x·Π s^p and Y = y·Π s^q the index Π s^e must satisfy e = alpha·p + beta·q
     for every symbol s; the line of constant index then has log–log slope −alpha/beta
-    (E^1/2/ρ on E against ρ: alpha = −1, beta = 1/2, slope 2).
+    (E^1/2/ρ on E against ρ: alpha = −1, beta = 1/2, slope 2). ``coef`` turns the axes'
+    display values into the index in its display unit; ``values`` (the index in stored
+    units, e.g. a shortlist's) choose that unit's prefix as the shortlist table does.
 
     Raises:
         InputError: the index is not a monomial, needs a property on neither axis,
-            cannot be written with the two axes, or an axis is not on a log scale.
+            cannot be written with the two axes, an axis is not on a log scale or is
+            shown in an offset unit.
     """
     coef, powers, text = _index_powers(index)
     for axis, which in ((x, "x"), (y, "y")):
@@ -143,8 +147,17 @@ def index_line(index: Any, x: AxisSpec, y: AxisSpec) -> IndexLine:
         )
     alpha, beta = float(alpha), float(beta)
     alpha, beta = (0.0 if abs(alpha) < 1e-12 else alpha), (0.0 if abs(beta) < 1e-12 else beta)
+    for axis, power, which in ((x, alpha, "x"), (y, beta, "y")):
+        if power and not math.isfinite(axis.factor):
+            raise InputError(
+                f"{which} axis",
+                f"{axis.text} is shown in an offset unit ({_plain(axis.unit)})",
+                "index lines over a temperature need --units si",
+            )
+    unit, shown = monomial_unit(powers, x.units, values)
     scale = coef * x.coef ** (-alpha) * y.coef ** (-beta)
-    return IndexLine(alpha, beta, scale, text, _units_html(powers, x.units))
+    axes_to_index = x.factor ** (-alpha) * y.factor ** (-beta)
+    return IndexLine(alpha, beta, shown * scale * axes_to_index, text, unit)
 
 
 def _clip_line(
@@ -285,8 +298,8 @@ def _bounds(axis: AxisSpec, limits: Sequence[Limit]) -> tuple[float | None, floa
     if not axis.is_property:
         return None, None, []
     used = [lim for lim in limits if lim.symbol == axis.text and not lim.is_rating]
-    lows = [_display_value(lim.symbol, lim.value, axis.units) for lim in used if lim.op == ">="]
-    highs = [_display_value(lim.symbol, lim.value, axis.units) for lim in used if lim.op == "<="]
+    lows = [float(shown_value(lim.symbol, lim.value, axis.units)) for lim in used if lim.op == ">="]
+    highs = [float(shown_value(lim.symbol, lim.value, axis.units)) for lim in used if lim.op == "<="]
     return (max(lows) if lows else None), (min(highs) if highs else None), used
 
 

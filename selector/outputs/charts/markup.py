@@ -107,3 +107,11 @@ def _plain(text: str) -> str:
     for tag, plain in (("<sup>", "^"), ("</sup>", ""), ("<sub>", "_"), ("</sub>", "")):
         text = text.replace(tag, plain)
     return html.unescape(text)
+
+
+def unit_html(label: str) -> str:
+    """A unit written as plain text by ``display_units`` (``GPa^(1/2)/(Mg/m³)``) as chart text."""
+    from selector.outputs.formula import text_pieces
+
+    tags = {"text": "{}", "sup": "<sup>{}</sup>", "sub": "<sub>{}</sub>"}
+    return "".join(tags[kind].format(_esc(run)) for kind, run in text_pieces(label))

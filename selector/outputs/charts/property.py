@@ -21,6 +21,8 @@ from selector.outputs.charts.axes import (
     _extent,
     axis_spec,
     axis_values,
+    hover_ranges,
+    monomial_typical,
 )
 from selector.outputs.charts.classes import _Classes, _draw_classes, _gather
 from selector.outputs.charts.guides import (
@@ -28,11 +30,13 @@ from selector.outputs.charts.guides import (
     _bounds,
     _draw_index_lines,
     _draw_pass_region,
+    _index_powers,
     _limits_of,
     index_line,
 )
 from selector.outputs.charts.labels import _label_shortlist, _note_skipped
 from selector.outputs.charts.markup import _esc
+from selector.pipeline.columns import INDEX
 from selector.pipeline.screen import REJECTED, Limit, Screens
 from selector.suggest import did_you_mean
 
@@ -51,6 +55,7 @@ def property_chart(
     title: str | None = None,
     steps: int = 3,
     factor: float = 10.0,
+    index_values: Sequence[float] | None = None,
 ) -> go.Figure:
     """A chart of two properties or index expressions, one box per class.
 
@@ -62,21 +67,25 @@ def property_chart(
         index: merit index for index lines: text (``"E^0.5/rho"``), ``{symbol: exponent}``
             or a Derivation. It must reduce to the two plotted quantities.
         through: id of the class the main index line passes through (at its marker).
-        at: index value of the main line instead, in the chart's display units. With neither,
-            the line passes through the first highlighted class, else the median class.
+        at: index value of the main line instead, in the index's display unit (the unit the
+            line's label and the shortlist table give it). With neither, the line passes
+            through the first highlighted class, else the median class.
         screens: limits to draw as the pass region. The chart screens nothing itself: a table
             without a ``status`` column (from ``apply_screens`` or a Selection) draws every class
             as passing.
         highlight: ids of the shortlist, best first; they are ringed and named.
         title: chart title (escaped).
         steps, factor: parallel index lines at value × factor^k for k = −steps … steps.
+        index_values: the index in stored units over the classes whose table is shown beside
+            the chart (a Selection's shortlist); they choose the index unit's prefix as that
+            table does. By default the ranked classes of ``table`` (else every class).
 
     Raises:
         InputError: unknown axis, unit system, class id or an index that cannot be drawn.
         ExpressionError: an axis or index expression that cannot be parsed.
     """
     units = _check_units(units)
-    xa, ya = axis_spec(x, units, "x axis"), axis_spec(y, units, "y axis")
+    xa, ya = axis_spec(x, units, "x axis", table), axis_spec(y, units, "y axis", table)
     limits = _limits_of(screens)
     if (through is not None or at is not None) and index is None:
         raise InputError(
@@ -84,9 +93,20 @@ def property_chart(
         )
     if through is not None and at is not None:
         raise InputError("index line", f"both through={through!r} and at={at!r} were given", "one of the two")
-    line = index_line(index, xa, ya) if index is not None else None
+    line = None
+    if index is not None:
+        values = _stored_index(table, index) if index_values is None else np.asarray(index_values, float)
+        line = index_line(index, xa, ya, values)
     xv, yv = axis_values(table, xa), axis_values(table, ya)
-    classes, skipped = _gather(table, xv, yv, xa.log, ya.log, (xa.label, xa.unit), (ya.label, ya.unit))
+    classes, skipped = _gather(
+        table,
+        xv,
+        yv,
+        xa.log,
+        ya.log,
+        (xa.label, hover_ranges(table, xa, xv[0], xv[1])),
+        (ya.label, hover_ranges(table, ya, yv[0], yv[1])),
+    )
     if not classes.ids:
         raise InputError(
             "chart",
@@ -144,6 +164,19 @@ def property_chart(
         }
     )
     return fig
+
+
+def _stored_index(table: pd.DataFrame, index: Any) -> np.ndarray | None:
+    """An index in stored units at the typical values of the ranked classes (else of all).
+
+    None when the table lacks one of its properties (``index_line`` says what is wrong).
+    """
+    coef, powers, _ = _index_powers(index)
+    if any(property_of(s).low not in table.columns for s in powers):
+        return None
+    ranked = table["rank"].notna() if "rank" in table.columns else pd.Series(False, index=table.index)
+    rows = table[ranked] if ranked.any() else table
+    return monomial_typical(rows, coef, powers)
 
 
 def _index_value(
@@ -235,6 +268,7 @@ def chart_for_selection(
     shortlist = selection.shortlist
     highlight = [str(v) for v in shortlist["id"].head(max(top, 0))] if "id" in shortlist.columns else []
     chosen = index if index is not None else ranking
+    is_ranking = index is None or (typed is not None and index == typed)
     xa, ya = axis_spec(x, units, "x axis"), axis_spec(y, units, "y axis")
     if chosen is not None and index is None and through is None and at is None:
         try:
@@ -253,4 +287,5 @@ def chart_for_selection(
         screens=selection.screens,
         highlight=highlight,
         title=title or spec_title,
+        index_values=shortlist[INDEX].to_numpy(dtype=float) if is_ranking else None,
     )

@@ -11,7 +11,14 @@ import plotly.graph_objects as go
 
 from selector.errors import InputError
 from selector.inputs.units import format_number
-from selector.outputs.charts.axes import _axis_layout, _AxisLook, _base_layout, _extent, _log_or_linear
+from selector.outputs.charts.axes import (
+    _axis_layout,
+    _AxisLook,
+    _base_layout,
+    _extent,
+    _log_or_linear,
+    range_texts,
+)
 from selector.outputs.charts.classes import _draw_classes, _gather
 from selector.outputs.charts.guides import _clip_line
 from selector.outputs.charts.labels import _label_shortlist, _note_skipped
@@ -64,7 +71,8 @@ def tradeoff_chart(
         hi = table[f"{col}_high"].to_numpy(dtype=float) if f"{col}_high" in table.columns else v
         values[col] = (np.minimum(lo, hi), np.maximum(lo, hi), v)
     xt, yt = _esc(x_title or x), _esc(y_title or y)
-    classes, skipped = _gather(table, values[x], values[y], log, log, (_esc(x), ""), (_esc(y), ""))
+    hover = {col: (_esc(col), range_texts(values[col][0], values[col][1], "")) for col in (x, y)}
+    classes, skipped = _gather(table, values[x], values[y], log, log, hover[x], hover[y])
     if not classes.ids:
         raise InputError(
             "trade-off chart", f"no candidate has finite values of {x} and {y}", "sized candidates"

@@ -137,8 +137,8 @@ def _line_value(text: str, messages: dict[str, str]) -> float | None:
     if not math.isfinite(value) or value <= 0:
         shown = (text or "").strip() or "nothing"
         messages["line"] = (
-            f"index line: {shown!r} is not an index value; a positive number in the chart's units"
-            f"; the line is drawn through the leader instead"
+            f"index line: {shown!r} is not an index value; a positive number in the unit of the"
+            f" shortlist's index; the line is drawn through the leader instead"
         )
         return None
     return value

@@ -249,7 +249,7 @@ def layout(start: Start, c: Controls) -> Any:
                     value=c.line_value,
                     debounce=True,
                     type="text",
-                    placeholder="in the chart's units",
+                    placeholder="in the table's unit",
                 ),
                 None,
             ),

@@ -136,7 +136,7 @@ class Controls:
         screens: (comparison, value with unit) for each of SCREEN_ROWS; an empty value is no screen.
         x, y: chart axes (property symbols or expressions); empty follows the index.
         line_mode: where the index line goes: "leader", "class" (the chosen class) or "value".
-        line_value: the index value typed for the line, in the chart's units.
+        line_value: the index value typed for the line, in the unit of the shortlist's index column.
         chosen: the id of the class whose data is shown.
         fields: (path, text) of the spec fields of ``fields.FIELDS``; "" leaves the key out.
             A path not listed keeps the loaded spec's value.
