@@ -157,7 +157,7 @@ def test_a_bad_expression_shows_a_message_and_the_page_keeps_working(page):
     expect(message).to_contain_text("column 5")
     _type(page, "#x-axis", "price*rho")
     expect(message).to_be_empty()
-    expect(page.locator("#chart .xtitle")).to_contain_text("kg/m³")
+    expect(page.locator("#chart .xtitle")).to_contain_text("Mg/m³")  # the index's unit for density
     expect(page.locator("#chart .xtitle")).to_contain_text("USD/kg")
     _type(page, "#x-axis", "")
     expect(page.locator("#chart .xtitle")).not_to_contain_text("USD/kg")
