@@ -80,16 +80,23 @@ def _layout(
     short: Mapping[str, str] | None,
     optional: tuple[str, ...],
     short_always: bool = False,
+    leave_out: tuple[str, ...] = (),
 ) -> Layout:
     """Study tables narrow by notes, standard errors, short names, then the named columns (id, family last).
 
-    ``short_always`` names classes by their short names whatever the width (to match a table beside it).
+    ``short_always`` names classes by their short names and ``leave_out`` leaves columns
+    out whatever the width (to match a table printed beside it).
     """
     steps: list[Step] = [c for c in frame.columns if str(c).endswith("_se")]
     if short and "name" in frame:
         names = [_short_of(str(i), str(n), short) for i, n in zip(frame["id"], frame["name"], strict=True)]
         steps.append(Shorten("name", names, always=short_always))
-    return Layout(notes=("note",), steps=(*steps, *optional, "family", "id"), elide=("name",))
+    steps += [*optional, *(c for c in _NAMING if c not in leave_out)]
+    return Layout(notes=("note",), steps=steps, elide=("name",), leave_out=leave_out)
+
+
+_NAMING = ("family", "id")
+"""The columns naming a class besides its name, left out last and alike in tables printed together."""
 
 
 def _head(frame: pd.DataFrame, top: int | None) -> pd.DataFrame:
@@ -198,11 +205,13 @@ def _fitted_alike(
     optional: Mapping[str, tuple[str, ...]],
 ) -> dict[str, str]:
     """Tables printed one above the other, fitted to ``width``; if one names classes by their
-    short names, every one does."""
+    short names, or leaves out their id or family, every one does."""
     fitted = {name: fit_frame(f, width, _layout(f, short, optional[name])) for name, f in frames.items()}
-    if any("name" in f.shortened for f in fitted.values()):
+    shorts = {"name" in f.shortened for f in fitted.values()}
+    gone = tuple(c for c in _NAMING if any(c in f.left_out for f in fitted.values()))
+    if len(shorts) > 1 or any(set(gone) - set(f.left_out) for f in fitted.values()):
         fitted = {
-            name: fit_frame(f, width, _layout(f, short, optional[name], short_always=True))
+            name: fit_frame(f, width, _layout(f, short, optional[name], any(shorts), gone))
             for name, f in frames.items()
         }
     return {name: f.text for name, f in fitted.items()}

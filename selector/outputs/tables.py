@@ -571,7 +571,7 @@ def _rank_layout(selection: Any, frame: pd.DataFrame, shown: pd.DataFrame) -> La
     if names.get("co2") == "kg CO2e":
         steps.append(Shorten("co2", name="CO2e", unit="kg"))
     steps.append(Shorten("class", _shorts(frame["id"], short_names(selection.table))))
-    sizes = _size_product(frame["dimensions"]) if "dimensions" in frame else None
+    sizes = _size_product(frame["dimensions"]) if "size" in names else None
     if sizes is not None:
         steps.append(Shorten("size", sizes[1], name=sizes[0]))
     steps += ["utilisation", "family", *others, index, "status", "governing"]
@@ -614,10 +614,12 @@ def _compact(frame: pd.DataFrame, units: str, heads: dict[str, str], ranking_key
     )
     if "dimensions" in frame:
         lu = LENGTH_UNIT[units]
-        out[f"size [{lu}]"] = [
+        sizes = [
             " ".join(f"{k}={format_number(v)}" for k, v in d.items()) if isinstance(d, dict) else "–"
             for d in frame["dimensions"]
         ]
+        if any(size not in ("", "–") for size in sizes):  # a spring is sized by its volume alone
+            out[f"size [{lu}]"] = sizes
         for value in (*columns.SIZED_VALUES, columns.ENERGY):
             if heads[value] in frame:
                 out[heads[value]] = frame[heads[value]]

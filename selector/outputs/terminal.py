@@ -58,14 +58,17 @@ class Layout:
     notes: Sequence[str] = ()
     steps: Sequence[Step] = ()
     elide: Sequence[str] = ()
+    leave_out: Sequence[str] = ()
+    """Columns left out whatever the width (to match a table printed beside it)."""
 
 
 @dataclass(frozen=True)
 class Fitted:
-    """A fitted table: its text and the columns given a narrower form."""
+    """A fitted table: its text, the columns given a narrower form and those left out."""
 
     text: str
     shortened: frozenset[str]
+    left_out: tuple[str, ...] = ()
 
 
 @dataclass
@@ -199,8 +202,8 @@ def fit(
     for step in layout.steps:
         if isinstance(step, Shorten) and step.always and _shorten(columns, step):
             shortened.add(step.column)
+    left_out = [name for name in layout.leave_out if _leave_out(columns, name)]
     notes = _to_notes(columns, layout.notes) if too_wide() else []
-    left_out: list[str] = []
     for step in layout.steps:
         if not too_wide():
             break
@@ -222,7 +225,9 @@ def fit(
         tail.append(f"not shown at {width} columns: {', '.join(left_out)} (--wide shows every column)")
     if notes:
         tail += ["", "notes:"] + [f"  {n}" for n in notes]
-    return Fitted("\n".join(lines + wrap(tail, width, indent="      ")), frozenset(shortened))
+    return Fitted(
+        "\n".join(lines + wrap(tail, width, indent="      ")), frozenset(shortened), tuple(left_out)
+    )
 
 
 def fit_table(

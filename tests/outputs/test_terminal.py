@@ -224,6 +224,15 @@ def test_the_front_and_the_penalty_table_name_classes_alike(columns):
     assert all(full) if columns == 200 else True
 
 
+@pytest.mark.parametrize("columns", [80, 120, 200])
+@pytest.mark.parametrize("spec", [BOOM, HATCH], ids=["boom", "hatch"])
+def test_the_front_and_the_penalty_table_keep_the_same_naming_columns(spec, columns):
+    text = _run(("rank", spec, "--tradeoff", "cost", "--exchange", "40 USD/kg", "--top", "5"), columns)
+    heads = [set(line.split()) for line in text.splitlines() if line.startswith(("id  ", "name  "))]
+    assert len(heads) == 2
+    assert heads[0] & {"id", "name", "family"} == heads[1] & {"id", "name", "family"}
+
+
 def test_the_sensitivity_table_leaves_out_the_leader_named_above_it_at_80_columns():
     text = _run(("rank", BOOM, "--robust", "200"), 80)
     head = _header(text, "property")
