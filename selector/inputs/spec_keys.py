@@ -16,7 +16,7 @@ from selector.mechanics.loadcases import (
     EXTERNAL_CRITERION,
     FUNCTIONS,
     SPHERE_EXTERNAL,
-    VESSEL_LOADS,
+    VESSEL_LOADS_OF,
     part_kind,
 )
 from selector.suggest import did_you_mean
@@ -29,7 +29,7 @@ PART_KEYS: dict[str, tuple[str, ...]] = {
     "panel": ("support", "load", "length", "force", "width", "edges"),
     "plate": ("length", "force", "width", "edges"),
     "cylinder": ("load", "length", "pressure", "radius"),
-    "sphere": ("pressure", "radius"),
+    "sphere": ("load", "pressure", "radius"),
     "spring": ("energy", "form"),
 }
 """Function → the ``[part]`` keys it reads besides ``function`` (its loads, geometry and options).
@@ -84,9 +84,7 @@ def _part_problems(part: Mapping[str, Any], fn: str, free: Any, source: str) -> 
     for key in part:
         if key == "function" or key not in _ALL_PART_KEYS:
             continue  # unknown keys are the model's to report
-        if fn == "sphere" and key == "load":
-            out.append(_problem(source, ("part", key), *SPHERE_EXTERNAL))
-        elif key not in keys:
+        if key not in keys:
             out.append(
                 _problem(
                     source,
@@ -96,14 +94,12 @@ def _part_problems(part: Mapping[str, Any], fn: str, free: Any, source: str) -> 
                 )
             )
     load = part.get("load")
-    if fn == "cylinder" and isinstance(load, str) and load not in VESSEL_LOADS:
+    loads = VESSEL_LOADS_OF.get(fn, ())
+    if fn == "sphere" and load == "external":
+        out.append(_problem(source, ("part", "load"), *SPHERE_EXTERNAL))
+    elif loads and isinstance(load, str) and load not in loads:
         out.append(
-            _problem(
-                source,
-                ("part", "load"),
-                f"{load!r} is not a cylinder's load",
-                did_you_mean(load, VESSEL_LOADS),
-            )
+            _problem(source, ("part", "load"), f"{load!r} is not a {fn}'s load", did_you_mean(load, loads))
         )
     if fn == "beam" and "width" in part and free != "depth":
         out.append(

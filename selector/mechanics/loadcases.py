@@ -31,7 +31,9 @@ SECTION_QUANTITIES = frozenset({"A", "I", "Imin", "Z", "J", "Zt"})
 BEAM_SUPPORTS = ("cantilever", "simply-supported", "fixed-fixed")
 BEAM_LOADS = ("end", "centre", "uniform")
 VESSEL_LOADS = ("internal", "external")
-"""A cylinder's pressure: from inside (the wall in tension) or from outside (in compression)."""
+"""A vessel's pressure: from inside (the wall in tension) or from outside (in compression)."""
+VESSEL_LOADS_OF: dict[str, tuple[str, ...]] = {"cylinder": VESSEL_LOADS, "sphere": ("internal",)}
+"""The pressures each vessel is sized for (a sphere refuses external pressure: ``SPHERE_EXTERNAL``)."""
 COLUMN_SUPPORTS = ("pinned-pinned", "fixed-free", "fixed-pinned", "fixed-fixed")
 CONSTRAINTS = ("stiffness", "strength", "buckling", *fm.FAILURE_CONSTRAINTS)
 
@@ -212,8 +214,10 @@ def _base_case(function: str, support: str | None, load: str | None) -> LoadCase
     if function == "cylinder":
         load = _check_choice(load or "internal", VESSEL_LOADS, "part.load")
         return _cylinder() if load == "internal" else _cylinder_outside()
-    if function == "sphere" and load not in (None, "internal"):
-        raise InputError("part.load", SPHERE_EXTERNAL[0], SPHERE_EXTERNAL[1])
+    if function == "sphere":
+        if load == "external":
+            raise InputError("part.load", *SPHERE_EXTERNAL)
+        _check_choice(load or "internal", VESSEL_LOADS_OF["sphere"], "part.load")
     return {
         "tie": _tie,
         "shaft": _shaft,
@@ -374,7 +378,8 @@ def _cylinder_outside() -> LoadCase:
 
 SPHERE_EXTERNAL = (
     "a sphere is sized for internal pressure only",
-    "no load key; a sphere's buckling under external pressure is so sensitive to out-of-roundness "
+    'load = "internal" or no load; a sphere\'s buckling under external pressure is so sensitive '
+    "to out-of-roundness "
     "that tests fall to a small fraction of the classical value, so no formula here sizes it: use "
     'a cylinder with load = "external", or test-based design rules for a sphere',
 )

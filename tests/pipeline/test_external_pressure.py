@@ -220,6 +220,17 @@ def test_a_sphere_refuses_external_pressure_and_says_why():
     assert "out-of-roundness" in line and 'a cylinder with load = "external"' in line
     with pytest.raises(InputError, match="internal pressure only"):
         load_case("sphere", load="external")
+    # Saying "internal" is allowed and changes nothing; any other word is named.
+    said = {**spec, "part": {**spec["part"], "load": "internal"}}
+    plain = {**spec, "part": {k: v for k, v in spec["part"].items() if k != "load"}}
+    table = make_table([STEEL])
+    assert (
+        select(spec_from_dict(said), table).shortlist["mass"].iat[0]
+        == select(spec_from_dict(plain), table).shortlist["mass"].iat[0]
+    )
+    assert _problems({**spec, "part": {**spec["part"], "load": "inside"}}) == [
+        "x.toml: part.load: 'inside' is not a sphere's load; expected one of: internal"
+    ]
 
 
 @pytest.mark.parametrize("criterion", ["leak-before-break", "yield-before-break"])

@@ -20,7 +20,7 @@ from dash import dcc, html
 from selector.inputs.limits import MAX_TOML_BYTES
 from selector.inputs.properties import FAMILIES, PROPERTIES, RATING_LEVELS, RATINGS
 from selector.inputs.units import format_number
-from selector.mechanics.loadcases import CONSTRAINTS, VESSEL_LOADS, LoadCase, load_case
+from selector.mechanics.loadcases import CONSTRAINTS, VESSEL_LOADS_OF, LoadCase, load_case
 from selector.outputs.explore.fields import (
     CONSTRAINT_FIELDS,
     PART_FIELDS,
@@ -122,9 +122,7 @@ def form_state(start: Start) -> FormState:
 def _constraint_types(function: str, case: LoadCase) -> tuple[str, ...]:
     """The constraint types on offer: the case's, and for a cylinder those under either
     pressure, so buckling stays on offer when its load is switched to external."""
-    if function != "cylinder":
-        return case.constraints
-    cases = (case, *(load_case(function, load=load) for load in VESSEL_LOADS))
+    cases = (case, *(load_case(function, load=load) for load in VESSEL_LOADS_OF.get(function, ())))
     return tuple(dict.fromkeys(t for c in cases for t in c.constraints))
 
 

@@ -13,7 +13,7 @@ from dataclasses import dataclass
 
 from selector.inputs.spec_keys import PART_KEYS
 from selector.mechanics.failure_modes import CRITERIA
-from selector.mechanics.loadcases import BEAM_LOADS, BEAM_SUPPORTS, COLUMN_SUPPORTS, VESSEL_LOADS
+from selector.mechanics.loadcases import BEAM_LOADS, BEAM_SUPPORTS, COLUMN_SUPPORTS, VESSEL_LOADS_OF
 from selector.mechanics.plates import PLATE_EDGES
 from selector.mechanics.sections import SHAPES
 from selector.mechanics.springs import SPRING_FORMS
@@ -133,7 +133,7 @@ def choices(field: SpecField, function: str) -> tuple[str, ...]:
     if field.path == "part.support":
         return ("", *(COLUMN_SUPPORTS if function == "column" else BEAM_SUPPORTS))
     if field.path == "part.load":
-        return ("", *(VESSEL_LOADS if function == "cylinder" else BEAM_LOADS))
+        return ("", *VESSEL_LOADS_OF.get(function, BEAM_LOADS))
     if field.path == "part.edges":
         return ("", "free-sides") if function == "panel" else ("", *PLATE_EDGES)
     if field.path == "part.form":
