@@ -172,3 +172,13 @@ def test_a_quoted_standard_keeps_its_figure_with_the_us_one_beside_it():
 def test_a_typed_power_product_is_shown_in_its_us_unit():
     text = _out(("rank", str(EXAMPLES / "camera-dolly-boom.toml"), "--units", "us", "--index", "E^0.5/rho"))
     assert "M = E^0.5/rho in Msi^(1/2)/(lb/in³)" in text
+
+
+def test_embodied_carbon_stays_in_kg_co2e_while_mass_reads_in_pounds():
+    boom = str(EXAMPLES / "camera-dolly-boom.toml")
+    si = json.loads(_out(("rank", boom, "--top", "1", "--format", "json")))[0]
+    us = json.loads(_out(("rank", boom, "--top", "1", "--format", "json", "--units", "us")))[0]
+    assert us["co2"] == si["co2"] and us["co2"]["unit"] == "kg CO2e"
+    # 1 lb = 0.45359237 kg exactly (NIST SP 811)
+    assert us["mass"]["unit"] == "lb"
+    assert us["mass"]["value"] == pytest.approx(si["mass"]["value"] / 0.45359237, rel=1e-12)
