@@ -17,6 +17,7 @@ from selector.mechanics.loadcases import (
     FUNCTIONS,
     SPHERE_EXTERNAL,
     VESSEL_LOADS_OF,
+    load_case,
     part_kind,
 )
 from selector.suggest import did_you_mean
@@ -101,6 +102,13 @@ def _part_problems(part: Mapping[str, Any], fn: str, free: Any, source: str) -> 
         out.append(
             _problem(source, ("part", "load"), f"{load!r} is not a {fn}'s load", did_you_mean(load, loads))
         )
+    support = part.get("support")
+    if "support" in keys and isinstance(support, str) and (isinstance(load, str) or load is None):
+        try:
+            load_case(fn, support, load if isinstance(load, str) else None)
+        except InputError as exc:  # an unknown support, or a load its support does not take
+            field = exc.where.removeprefix("part.")
+            out.append(_problem(source, ("part", field), exc.what, exc.expected))
     if fn == "beam" and "width" in part and free != "depth":
         out.append(
             _problem(

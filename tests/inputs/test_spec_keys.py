@@ -118,6 +118,25 @@ def test_the_error_carries_its_location():
     assert err.value.location == ("part", "support")
 
 
+@pytest.mark.parametrize(
+    ("function", "part", "field", "suggestion"),
+    [
+        ("beam", {"support": "cantileverr"}, "support", "did you mean 'cantilever'?"),
+        ("beam", {"load": "uniformm"}, "load", "did you mean 'uniform'?"),
+        ("column", {"support": "pinned"}, "support", "valid: "),
+        ("panel", {"support": "simply-supported", "load": "end"}, "load", "centre, uniform"),
+    ],
+)
+def test_a_support_or_load_the_case_does_not_take_is_a_spec_error_in_the_file(
+    function, part, field, suggestion
+):
+    # found as the spec loads, with the file's name, not later by the pipeline
+    lines = _messages(_spec(function, part=part))
+    assert len(lines) == 1
+    assert lines[0].startswith(f"x.toml: part.{field}: ")
+    assert suggestion in lines[0]
+
+
 def test_a_beam_reads_width_only_with_its_depth_free():
     lines = _messages(
         _spec("beam", part={"width": "20 mm"}, section={"shape": "tube", "d": "30 mm", "t": "2 mm"})
