@@ -14,6 +14,7 @@ embodied carbon stays in kg CO2e per kg, a unit used the world over."""
 
 from __future__ import annotations
 
+import functools
 import math
 import re
 from collections.abc import Mapping, Sequence
@@ -76,8 +77,18 @@ def _factor_to(symbol: str, units: str) -> Shown:
         want = _DEFAULT[units].get(prop.stored, scales[0][0])
         return Shown(*next(s for s in scales if s[0] == want))
     if units == "us" and prop.us != prop.stored:
-        return Shown(prop.us_label, float("nan"))  # converted through pint (offset units)
+        return Shown(prop.us_label, _linear_factor(prop.stored, prop.us, symbol))
     return Shown(prop.label, 1.0)
+
+
+@functools.cache
+def _linear_factor(stored: str, us: str, symbol: str) -> float:
+    """The factor from ``stored`` to ``us`` (pint's), or NaN where the two differ by an offset
+    (°C to °F), whose values are converted one by one."""
+    from selector.inputs.units import convert
+
+    zero, one = float(convert(0.0, stored, us, symbol)), float(convert(1.0, stored, us, symbol))
+    return one if abs(zero) <= 1e-12 * abs(one) else math.nan
 
 
 def property_unit(symbol: str, units: str = "si") -> Shown:

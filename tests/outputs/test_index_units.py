@@ -201,3 +201,15 @@ def test_the_terminal_and_the_report_print_the_simplified_unit():
     assert header["index"] == "kJ/USD" and rows[0]["index"] == "1.32"
     out = CliRunner().invoke(cli, ["rank", spec, "--wide", "--units", "us"])
     assert "ft·lbf/USD" in out.stdout
+
+
+def test_thermal_properties_carry_their_us_factor():
+    # NIST SP 811 appendix B.8 (International Table Btu): 1 Btu/(h·ft·°F) = 1.730735 W/(m·K),
+    # 1 Btu/(lb·°F) = 4186.8 J/(kg·K); a kelvin is 1.8 degrees Fahrenheit (exact).
+    assert du.property_unit("lambda", "us").factor == pytest.approx(1 / 1.730735, rel=1e-6)
+    assert du.property_unit("c_p", "us").factor == pytest.approx(1 / 4186.8, rel=1e-6)
+    assert du.property_unit("alpha", "us").factor == pytest.approx(1 / 1.8)
+    # an offset unit has no one factor: its values are converted one by one
+    assert np.isnan(du.property_unit("T_max", "us").factor)
+    # so a thermal index reads in US units, here λ/α: (1/1.730735)/(1/1.8) = 1.04002 per SI unit
+    assert du.index_unit({"lambda": 1.0, "alpha": -1.0}, "us").factor == pytest.approx(1.8 / 1.730735)
