@@ -13,12 +13,12 @@ import datetime as _dt
 import math
 import re
 from collections.abc import Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from pathlib import Path
 from typing import Any
 
 from selector.errors import InputError, SelectorError
-from selector.mechanics.objectives import OBJECTIVE_UNITS
+from selector.outputs.display_units import text_in_units
 from selector.outputs.formula import formula_html, headline_index_pieces, index_pieces, pieces_html
 from selector.pipeline import columns
 
@@ -202,11 +202,16 @@ def _derivation_view(d: Any) -> dict[str, Any]:
     }
 
 
-def _screens_view(selection: Any) -> dict[str, Any]:
+def _in_units(texts: Sequence[Any], units: str, quoted: bool = False) -> list[str]:
+    """Texts with their quantities in ``units`` (a quotation keeps its own and adds them)."""
+    return [text_in_units(str(t), units, quoted) for t in texts]
+
+
+def _screens_view(selection: Any, units: str) -> dict[str, Any]:
     s = selection.screens
-    limits = [{"text": lim.describe(), "as_written": lim.text} for lim in s.limits]
+    limits = [{"text": text_in_units(lim.describe(), units), "as_written": lim.text} for lim in s.limits]
     rejected = [
-        {"name": r.name, "id": r.id, "family": r.family, "reasons": list(r.reasons)}
+        {"name": r.name, "id": r.id, "family": r.family, "reasons": _in_units(r.reasons, units)}
         for r in selection.rejected[["name", "id", "family", "reasons"]].itertuples(index=False)
     ]
     partly = selection.shortlist
@@ -218,7 +223,7 @@ def _screens_view(selection: Any) -> dict[str, Any]:
         "exclude": list(s.exclude),
         "rejected": rejected,
         "partly": [
-            {"name": r.name, "reasons": list(r.reasons)}
+            {"name": r.name, "reasons": _in_units(r.reasons, units)}
             for r in partly[["name", "reasons"]].itertuples(index=False)
         ],
         "total": len(selection.table),
@@ -272,7 +277,7 @@ def _robust_view(selection: Any) -> dict[str, Any] | None:
     }
 
 
-def _tradeoff_view(selection: Any) -> dict[str, Any]:
+def _tradeoff_view(selection: Any, units: str) -> dict[str, Any]:
     """The Pareto front of the ranked objective against a second one, with its chart."""
     if not selection.has_sizes:
         return {"note": "parts are not sized (the spec gives no loads), so there is no trade-off to draw"}
@@ -280,8 +285,11 @@ def _tradeoff_view(selection: Any) -> dict[str, Any]:
         return {"note": f"no trade-off: {selection.tradeoff_error}"}
     if selection.tradeoff is None:
         return {"note": "no trade-off study was asked for"}
+    from selector.outputs.studies import exchange_unit, objective_unit
+
     first = selection.spec.objective.minimize
     other = selection.tradeoff.other
+    (x_unit, fx), (y_unit, fy) = objective_unit(first, units), objective_unit(other, units)
     front, ranges = selection.tradeoff.front, selection.tradeoff.second
     rows = []
     by_id = ranges.set_index("id") if "id" in ranges else None
@@ -291,10 +299,10 @@ def _tradeoff_view(selection: Any) -> dict[str, Any]:
             a = by_id.loc[r["id"]]
             lo, hi = a.get("alpha_low"), a.get("alpha_high")
             if lo is not None and hi is not None and not (math.isnan(lo) and math.isnan(hi)):
-                alpha = f"{_number(lo)} to {_number(hi)} {a.get('alpha_unit', '')}"
-        rows.append(
-            {"name": r["name"], "x": _number(r[first]), "y": _number(r[other]), "alpha": alpha or "–"}
-        )
+                unit, fa = exchange_unit(str(a.get("alpha_unit", "")), units)
+                alpha = f"{_number(lo * fa)} to {_number(hi * fa)} {unit}"
+        x, y = _number(r[first] * fx), _number(r[other] * fy)
+        rows.append({"name": r["name"], "x": x, "y": y, "alpha": alpha or "–"})
     chart = None
     try:
         from selector.outputs.charts import tradeoff_chart
@@ -308,13 +316,19 @@ def _tradeoff_view(selection: Any) -> dict[str, Any]:
                 **{f"{first}_low": points["objective_low"], f"{first}_high": points["objective_high"]}
             )
             what = "sized parts"
+        shown = {
+            col: points[col] * factor
+            for name, factor in ((first, fx), (other, fy))
+            for col in (name, f"{name}_low", f"{name}_high")
+            if col in points and factor != 1.0
+        }
         chart = tradeoff_chart(
-            points,
+            points.assign(**shown),
             first,
             other,
             front_ids=[str(i) for i in front["id"]],
-            x_title=f"{first} ({OBJECTIVE_UNITS[first]})",
-            y_title=f"{other} ({OBJECTIVE_UNITS[other]})",
+            x_title=f"{first} ({x_unit})",
+            y_title=f"{other} ({y_unit})",
             title=f"Trade-off: {other} against {first} of the {what}",
         )
     except (ImportError, SelectorError) as exc:
@@ -322,8 +336,8 @@ def _tradeoff_view(selection: Any) -> dict[str, Any]:
     return {
         "x": first,
         "y": other,
-        "x_unit": OBJECTIVE_UNITS[first],
-        "y_unit": OBJECTIVE_UNITS[other],
+        "x_unit": x_unit,
+        "y_unit": y_unit,
         "rows": rows,
         "chart": chart,
         "assumes": selection.tradeoff.note,
@@ -473,7 +487,7 @@ def report_context(
         spec_name = spec_name or "spec given in Python (shown as JSON)"
     header, rows = shortlist_rows(selection, units)
     size_warnings = sorted({w for r in rows for w in r.get("warnings", [])})
-    trade = _tradeoff_view(selection)
+    trade = _tradeoff_view(selection, units)
     figures = {"property": _property_chart(selection, units), "tradeoff": trade.get("chart")}
     from selector.outputs.report_sandwich import sandwich_view
 
@@ -481,20 +495,32 @@ def report_context(
     if sandwich is not None:
         figures["sandwich"] = sandwich.pop("figure")
     charts = _embed_charts(figures, static)
+    notes = selection.spec.notes
+    known = provenance(selection.table)
+    if units == "us":  # quoted figures keep their SI value, with the US one beside it
+        known = replace(
+            known,
+            sources=tuple((k, text_in_units(t, units, quoted=True)) for k, t in known.sources),
+            user_sources=tuple(
+                (f, n, text_in_units(t, units, quoted=True)) for f, n, t in known.user_sources
+            ),
+        )
     return {
         "title": selection.spec.title,
-        "notes": selection.spec.notes,
+        "notes": text_in_units(notes, units, quoted=True) if notes else notes,
         "caution": selection.caution,
         "generated": (generated or _dt.date.today()).isoformat(),
         "version": __version__,
         "spec_text": spec_text,
         "spec_name": spec_name or "spec",
-        "summary": _summary(selection, units),
-        "run_notes": list(selection.notes),
-        "assumptions": list(selection.assumptions),
+        "summary": [
+            (k, text_in_units(v, units) if type(v) is str else v) for k, v in _summary(selection, units)
+        ],
+        "run_notes": _in_units(selection.notes, units),
+        "assumptions": _in_units(selection.assumptions, units),
         "derivations": [_derivation_view(d) for d in selection.derivations],
         "typed_index": formula_html(selection.expression) if selection.expression else None,
-        "screens": _screens_view(selection),
+        "screens": _screens_view(selection, units),
         "sized": selection.has_sizes,
         "ranked_by_value": selection.sized,
         "ranked_by": selection.ranked_by,
@@ -506,7 +532,7 @@ def report_context(
         "tradeoff": trade,
         "robust": _robust_view(selection),
         "sandwich": sandwich,
-        "provenance": provenance(selection.table),
+        "provenance": known,
         "source_html": _source_html,
     }
 

@@ -38,28 +38,34 @@ _US_ALPHA = {
 """Exchange constants shown in US units: (unit, factor from the SI value)."""
 
 
+def objective_unit(name: str, units: str = "si") -> tuple[str, float]:
+    """(unit, factor from the SI value) an objective is shown in: mass in kg or lb, ..."""
+    return _US[name] if units == "us" and name in _US else (OBJECTIVE_UNITS[name], 1.0)
+
+
+def exchange_unit(unit: str, units: str = "si") -> tuple[str, float]:
+    """(unit, factor from the SI value) an exchange constant of SI ``unit`` is shown in."""
+    return _US_ALPHA[unit] if units == "us" and unit in _US_ALPHA else (unit, 1.0)
+
+
 def exchange_text(alpha: float, priced: str, units: str = "si") -> str:
     """An exchange constant (USD per SI unit of ``priced``) as shown: "40 USD/kg", "18.1 USD/lb"."""
-    unit = EXCHANGE_LABELS[priced]
-    if units == "us" and unit in _US_ALPHA:
-        unit, factor = _US_ALPHA[unit]
-        alpha *= factor
-    return f"{format_number(alpha)} {unit}"
+    unit, factor = exchange_unit(EXCHANGE_LABELS[priced], units)
+    return f"{format_number(alpha * factor)} {unit}"
 
 
 def _display(frame: pd.DataFrame, units: str = "si") -> pd.DataFrame:
     """Units into the headers, in the chosen system; α columns labelled with their unit."""
     out = frame.copy()
     labels = {"penalty": "penalty [USD]"}
-    for name, unit in OBJECTIVE_UNITS.items():
-        if units == "us" and name in _US and name in out:
-            unit, factor = _US[name]
+    for name in OBJECTIVE_UNITS:
+        unit, factor = objective_unit(name, units)
+        if name in out and factor != 1.0:
             out[name] = out[name] * factor
         labels[name] = f"{name} [{unit}]"
     if "alpha_unit" in out:
-        unit = str(out["alpha_unit"].iloc[0]) if len(out) else ""
-        if units == "us" and unit in _US_ALPHA:
-            unit, factor = _US_ALPHA[unit]
+        unit, factor = exchange_unit(str(out["alpha_unit"].iloc[0]) if len(out) else "", units)
+        if factor != 1.0:
             out[["alpha_low", "alpha_high"]] = out[["alpha_low", "alpha_high"]] * factor
         out = out.drop(columns="alpha_unit").rename(
             columns={"alpha_low": f"alpha_low [{unit}]", "alpha_high": f"alpha_high [{unit}]"}

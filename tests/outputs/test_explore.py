@@ -463,3 +463,13 @@ def test_no_page_property_is_written_by_two_callbacks_unless_marked():
     shared = {prop: marks for prop, marks in writers.items() if len(marks) > 1}
     assert "msg-upload.children" not in shared
     assert all(marks.count(False) == 1 for marks in shared.values()), shared
+
+
+def test_in_us_units_the_reasons_notes_and_sources_read_in_us_units(start, controls):
+    # structural steel's source quotes EN 1993-1-1 (E = 210 GPa): the figure stays as quoted,
+    # with the US one beside it; 210 GPa = 30.5 Msi (NIST SP 811: 1 psi = 6894.757 Pa)
+    view = refresh(start, replace(controls, units="us", chosen="structural-steel"))
+    panel = _text(view.class_panel)
+    assert "210 GPa [30.5 Msi]" in panel
+    listed = _text(view.shortlist)
+    assert "MPa·m½" not in listed and "°C" not in listed and " mm" not in listed

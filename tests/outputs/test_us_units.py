@@ -182,3 +182,31 @@ def test_embodied_carbon_stays_in_kg_co2e_while_mass_reads_in_pounds():
     # 1 lb = 0.45359237 kg exactly (NIST SP 811)
     assert us["mass"]["unit"] == "lb"
     assert us["mass"]["value"] == pytest.approx(si["mass"]["value"] / 0.45359237, rel=1e-12)
+
+
+NUMBER_IN_SI = re.compile(r"\d(?:–-?\d[\d.e+-]*)? " + SI_UNIT.pattern)
+"""A number followed by an SI unit (formulas name their symbols, m for mass, without numbers)."""
+
+
+@pytest.mark.parametrize(
+    "name", ["camera-dolly-boom", "walkway-hatch", "sensor-pressure-housing", "gate-return-spring"]
+)
+def test_the_report_in_us_units_shows_no_number_in_si(name, tmp_path):
+    import html
+
+    from selector.api import report_from_spec
+
+    out = report_from_spec(EXAMPLES / f"{name}.toml", tmp_path / "r.html", units="us", robust_draws=40)
+    page = out.read_text(encoding="utf-8")
+    page = re.sub(r"<(script|style)\b.*?</\1>", "\n", page, flags=re.S)
+    # the spec and its screens are shown as written, in the units the engineer typed
+    page = re.sub(r'<pre class="spec">.*?</pre>|<code>.*?</code>', "\n", page, flags=re.S)
+    lines = html.unescape(re.sub(r"<[^>]+>", "\n", page)).splitlines()
+    left = []
+    for line in lines:
+        rest = line
+        for allowed in ALLOWED:
+            rest = allowed.sub(" ", rest)
+        if NUMBER_IN_SI.search(rest):
+            left.append(line.strip())
+    assert left == []

@@ -10,6 +10,7 @@ from dash import dcc, html
 
 from selector.inputs.properties import PROPERTIES
 from selector.inputs.units import format_number
+from selector.outputs.display_units import text_in_units as in_units
 from selector.outputs.explore.editor import class_options, editor, field_box, message
 from selector.outputs.explore.state import Controls, Start
 from selector.outputs.formula import Piece, headline_index_pieces, index_pieces, text_pieces
@@ -78,7 +79,7 @@ def shortlist_view(selection: Any, units: str) -> Any:
     )
     rejected = selection.rejected
     rejected_items = [
-        html.Li([_pick_button(r.id, r.name), f" ({r.family}): " + "; ".join(r.reasons)])
+        html.Li([_pick_button(r.id, r.name), f" ({r.family}): " + in_units("; ".join(r.reasons), units)])
         for r in rejected[["id", "name", "family", "reasons"]].itertuples(index=False)
     ]
     return [
@@ -88,7 +89,9 @@ def shortlist_view(selection: Any, units: str) -> Any:
             [html.Summary(f"Rejected classes ({len(rejected)})"), html.Ul(rejected_items)],
             id="rejected",
         ),
-        html.Ul([html.Li(n) for n in selection.notes], className="small") if selection.notes else None,
+        html.Ul([html.Li(in_units(n, units)) for n in selection.notes], className="small")
+        if selection.notes
+        else None,
         html.P(["Caution: ", selection.caution], className="caution"),
     ]
 
@@ -182,7 +185,7 @@ def class_view(start: Start, selection: Any, class_id: str | None, units: str) -
             head.append(html.P(line, id="class-status"))
             reasons = list(mine["reasons"].iat[0])
             if reasons:
-                head.append(html.Ul([html.Li(r) for r in reasons], className="small"))
+                head.append(html.Ul([html.Li(in_units(r, units)) for r in reasons], className="small"))
     properties = []
     texts = []
     for r in data.to_dict(orient="records"):
@@ -196,8 +199,12 @@ def class_view(start: Start, selection: Any, class_id: str | None, units: str) -
         shown = low if low == high else f"{low} – {high}"
         properties.append(html.Tr([html.Th(name), html.Td(shown), html.Td(r["unit"])]))
     known = provenance(row)
-    sources = [html.Li([html.Code(k), f": {text}"]) for k, text in known.sources]
-    sources += [html.Li(f"{file}: {text}") for file, _, text in known.user_sources]
+    sources = [
+        html.Li([html.Code(k), f": {in_units(text, units, quoted=True)}"]) for k, text in known.sources
+    ]
+    sources += [
+        html.Li(f"{file}: {in_units(text, units, quoted=True)}") for file, _, text in known.user_sources
+    ]
     sources += [html.Li([html.Code(k), ": not described in the data notes"]) for k in known.unknown]
     return [
         *head,
