@@ -129,7 +129,7 @@ _PER: dict[str, dict[str, tuple[str, float]]] = {
     "mass": {"si": ("kg", 1.0), "us": ("lb", POUND)},
     "cost": {"si": ("USD", 1.0), "us": ("USD", 1.0)},
     "co2": {"si": ("kg CO2e", 1.0), "us": ("kg CO2e", 1.0)},
-    "energy": {"si": ("MJ", 1e6), "us": ("MJ", 1e6)},
+    "energy": {"si": ("MJ", 1e6), "us": ("kBtu", 1e3 * BTU)},
 }
 _PER_DENSITY = {(): "mass", ("price",): "cost", ("co2",): "co2", ("energy",): "energy"}
 """The energy kind of a strength squared over a modulus, per density and per what else (price ...)."""

@@ -360,6 +360,7 @@ def _one_part(
                 "feasible": False,
                 "size_warnings": ["no valid section of this shape meets the constraints"],
             }
+    euler_dims = dims
     key = _wall_key(design, case)
     if key is not None and dims.get(key, math.inf) < floor:
         warnings.append(
@@ -387,7 +388,9 @@ def _one_part(
         geometry = _geometry_values(design, dims, case) or geometry
     johnson = 1.0
     if case.function == "column" and any(d.constraint == "buckling" for d in derivations):
-        dims, geometry, johnson, note = _stocky_column(design, dims, geometry, case, props)
+        dims, geometry, johnson, note, grown = _stocky_column(design, dims, geometry, case, props, euler_dims)
+        if grown:
+            warnings = []  # grown past any minimum wall: the notes above no longer hold
         warnings += [note] if note else []
     values = dict(design.values) | geometry | props
     util: dict[str, float] = {}
@@ -398,10 +401,12 @@ def _one_part(
         util["buckling"] *= johnson  # Euler's load over the critical load (1 unless stocky)
     governing = max(util, key=util.__getitem__)
     feasible = not (design.free != "none" and johnson > 1 and util["buckling"] > 1 + CHECK_TOLERANCE)
-    if row["id"] in WIRE_CLASSES and dims.get("d", 0.0) > WIRE_MAX_DIAMETER:
+    # a generic section (a tie) made of wire is a bar of its area: d = (4A/π)^½
+    wire_d = dims.get("d") or math.sqrt(4 * values.get("A", 0.0) / math.pi)
+    if row["id"] in WIRE_CLASSES and wire_d > WIRE_MAX_DIAMETER:
         feasible = False
         warnings.append(
-            f"needs d = {format_number(dims['d'] * 1e3)} mm, thicker than the "
+            f"needs d = {format_number(wire_d * 1e3)} mm, thicker than the "
             f"{format_number(WIRE_MAX_DIAMETER * 1e3)} mm its wire data cover"
         )
     if design.free == "none" and util[governing] > 1 + CHECK_TOLERANCE:
@@ -458,14 +463,24 @@ def _stocky_column(
     geometry: dict[str, float],
     case: LoadCase,
     props: Mapping[str, float],
-) -> tuple[dict[str, float], dict[str, float], float, str | None]:
+    euler_dims: Mapping[str, float],
+) -> tuple[dict[str, float], dict[str, float], float, str | None, bool]:
     """A column in the inelastic range, grown until the Johnson parabola carries its load.
 
-    Returns the dimensions (grown where the size is free), their section quantities, how
-    many times Euler's load overestimates the critical load at them (1 when slender), and
-    a note for the part (None when slender).
+    ``euler_dims`` is the size Euler's load alone gives (before any minimum wall), the one
+    the growth is stated against. Returns the dimensions (grown where the size is free),
+    their section quantities, how many times Euler's load overestimates the critical load
+    at them (1 when slender), a note for the part (None when slender) and whether it grew.
     """
     strength = float(props.get("sigma_c", math.nan))
+    if not math.isfinite(strength) or strength <= 0:
+        return (
+            dims,
+            geometry,
+            1.0,
+            "σ_c unknown: inelastic (Johnson) buckling of a stocky column not checked",
+            False,
+        )
 
     def check(g: float) -> tuple[dict[str, float], dict[str, float], float, float] | None:
         """(dims, section, Johnson utilisation, Euler stress [Pa]) at the free size ×g."""
@@ -479,30 +494,32 @@ def _stocky_column(
         return trial, geo, euler_util * euler_overestimate(euler_stress, strength), euler_stress
 
     first = check(1.0)
-    if first is None or not math.isfinite(strength) or strength <= 0 or not is_stocky(first[3], strength):
-        return dims, geometry, 1.0, None
+    if first is None or not is_stocky(first[3], strength):
+        return dims, geometry, 1.0, None, False
     stress = (
         f"the Euler stress {format_number(first[3] / 1e6)} MPa is above "
         f"σ_c/2 = {format_number(strength / 2e6)} MPa"
     )
     if design.free == "none" or first[2] <= 1 + CHECK_TOLERANCE:
         note = f"stocky column: {stress}, so buckling is checked on the Johnson parabola"
-        return dims, geometry, euler_overestimate(first[3], strength), note
+        return dims, geometry, euler_overestimate(first[3], strength), note, False
     hi = 10.0
-    while hi < 1e3 and not _carries(check(hi)):
+    while hi < 1e3 and check(hi) is not None and not _carries(check(hi)):
         hi *= 10.0
+    if check(hi) is None:  # past the shape's limit (a wall over the radius): the largest valid size
+        hi = float(bisect_log(lambda g: check(g) is None, 1.0, hi, 60)[0])
     grown = check(float(bisect_log(lambda g: _carries(check(g)), 1.0, hi, 60)[1]))
     if grown is None or not _carries(grown):
         note = f"stocky column: {stress}, and no size of this shape carries the load on the Johnson parabola"
-        return dims, geometry, euler_overestimate(first[3], strength), note
+        return dims, geometry, euler_overestimate(first[3], strength), note, False
     trial, geo, _util, euler_stress = grown
     key = FREE_DIMENSION.get(design.free) or next(iter(trial))
-    growth = trial[key] / dims[key]
+    growth = trial[key] / euler_dims[key]
     note = (
         f"stocky column: {stress}, so it is sized on the Johnson parabola "
         f"σ_cr = σ_c − σ_c²/(4σ_E), ×{growth:.3g} the Euler size"
     )
-    return trial, geo, euler_overestimate(euler_stress, strength), note
+    return trial, geo, euler_overestimate(euler_stress, strength), note, True
 
 
 def _carries(checked: tuple[dict[str, float], dict[str, float], float, float] | None) -> bool:

@@ -213,3 +213,16 @@ def test_thermal_properties_carry_their_us_factor():
     assert np.isnan(du.property_unit("T_max", "us").factor)
     # so a thermal index reads in US units, here λ/α: (1/1.730735)/(1/1.8) = 1.04002 per SI unit
     assert du.index_unit({"lambda": 1.0, "alpha": -1.0}, "us").factor == pytest.approx(1.8 / 1.730735)
+
+
+def test_an_energy_index_per_embodied_energy_reads_per_kbtu_in_us_units():
+    # the embodied-energy column reads in kBtu under --units us, so the index does too:
+    # 1 kBtu = 1.05505585262 MJ (International Table Btu, NIST SP 811)
+    exponents = {"sigma_y": 2.0, "G": -1.0, "energy": -1.0, "rho": -1.0}
+    si, us = du.index_unit(exponents, "si", [1e6]), du.index_unit(exponents, "us", [1e6])
+    assert si.label.endswith("/MJ") and us.label.endswith("/kBtu")
+    joules = {"J": 1.0, "kJ": 1e3, "MJ": 1e6, "GJ": 1e9, "in·lbf": FT_LBF / 12, "ft·lbf": FT_LBF}
+    joules |= {"kip·in": 1e3 * FT_LBF / 12, "kip·ft": 1e3 * FT_LBF}
+    per_mj = si.factor * joules[si.label.split("/")[0]]  # J per MJ for one stored unit
+    per_kbtu = us.factor * joules[us.label.split("/")[0]]  # J per kBtu for one stored unit
+    assert per_kbtu == pytest.approx(per_mj * 1.05505585262, rel=1e-9)

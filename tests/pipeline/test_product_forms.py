@@ -123,17 +123,18 @@ def test_wire_thicker_than_its_data_cover_is_refused():
     # 1–10 mm the class's data note covers); 40 kN needs d = 14.3 mm, beyond it.
     wire = {**STEELISH, "id": "spring-steel-wire"}
 
-    def tie(force: str):
+    def tie(force: str, shape: str = "round"):
         part = {"function": "tie", "length": "1 m", "force": force}
         spec = spec_from_dict(
-            {"part": part, "section": {"shape": "round"}, "constraint": [{"type": "strength"}]}
+            {"part": part, "section": {"shape": shape}, "constraint": [{"type": "strength"}]}
         )
         return select(spec, make_table([wire])).table.set_index("id").loc["spring-steel-wire"]
 
     assert tie("10 kN")["dimensions"]["d"] == pytest.approx(7.136e-3, rel=1e-3)
-    thick = tie("40 kN")
-    assert thick["status"] == "rejected"
-    assert any("thicker than the 10 mm its wire data cover" in r for r in thick["reasons"])
+    for shape in ("round", "generic"):  # a generic tie of wire is a bar of the same area
+        thick = tie("40 kN", shape)
+        assert thick["status"] == "rejected"
+        assert any("needs d = 14.3 mm, thicker than the 10 mm" in r for r in thick["reasons"])
 
 
 def test_a_panel_sandwich_leaves_out_one_axis_faces():
