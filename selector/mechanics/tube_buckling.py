@@ -31,11 +31,13 @@ def collapse_stress(E: float, sigma_c: float, t: float, r: float) -> float:
     return columns.buckling_stress(elastic_buckling_stress(E, t, r), sigma_c)
 
 
-def yield_interaction_note(E: float, sigma_c: float, t: float, r: float) -> str | None:
+def yield_interaction_note(E: float, sigma_c: float, t: float, r: float, demand: float = 0.0) -> str | None:
     """Why this wall's collapse pressure is below both the buckling and crushing values, or None.
 
     Args:
         E: Young's modulus [Pa]; sigma_c: compressive strength [Pa]; t: wall [m]; r: radius [m].
+        demand: the working hoop stress times the buckling safety factor [Pa]; a collapse
+            estimate below it is said to leave the wall short of its safety factor.
     """
     if not (math.isfinite(E) and math.isfinite(sigma_c) and min(E, sigma_c, t, r) > 0):
         return None
@@ -48,8 +50,14 @@ def yield_interaction_note(E: float, sigma_c: float, t: float, r: float) -> str 
         f"the elastic buckling stress p_cr·r/t = {elastic / 1e6:.3g} MPa is above σ_c/2 "
         f"({sigma_c / 2e6:.3g} MPa): the wall yields as it buckles, and a Johnson-type parabola "
         f"(the column's, by analogy) puts collapse at {collapse / 1e6:.3g} MPa, "
-        f"{1 - collapse / lesser:.0%} below the lesser of the two; check the wall against the "
-        "design code's collapse curve"
+        f"{1 - collapse / lesser:.0%} below the lesser of the two"
+        + (
+            f", under the working hoop stress × SF ({demand / 1e6:.3g} MPa): on this estimate the wall "
+            "does not keep its safety factor"
+            if collapse < demand
+            else ""
+        )
+        + "; check the wall against the design code's collapse curve"
     )
 
 

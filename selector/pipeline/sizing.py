@@ -438,7 +438,10 @@ def _one_part(
             "stress p·r/t understates the stress at the bore; check with Lamé's thick-wall relations"
         )
     if case.kind.vessel and "buckling" in util and radius and t:
-        note = yield_interaction_note(props.get("E", math.nan), props.get("sigma_c", math.nan), t, radius)
+        demand = responses.get("stress", 0.0) * design.limits.get("buckling", {}).get("SF", 1.0)
+        note = yield_interaction_note(
+            props.get("E", math.nan), props.get("sigma_c", math.nan), t, radius, demand
+        )
         warnings += [note] if note else []
     return {
         "feasible": feasible,

@@ -115,6 +115,8 @@ def test_a_strength_governed_tube_is_sized_to_the_crushing_stress():
     # collapse 18 % below σ_c, under the working 250 MPa: the part is flagged (worked by hand).
     (note,) = [w for w in row["size_warnings"] if "Johnson-type" in w]
     assert "351.6 MPa" not in note and "352 MPa" in note and "206 MPa" in note and "18%" in note
+    # 206 MPa is under the 250 MPa working hoop stress × SF 1: short of its safety factor
+    assert "(250 MPa): on this estimate the wall does not keep its safety factor" in note
 
 
 def test_a_given_wall_is_checked_against_both_limits():
@@ -156,6 +158,8 @@ def test_the_collapse_stress_follows_the_columns_parabola_above_half_the_strengt
     assert yield_interaction_note(200e9, 20e6, 4e-3, 0.05) is None
     assert yield_interaction_note(200e9, float("nan"), 4e-3, 0.05) is None
     assert yield_interaction_note(200e9, 250e6, 4e-3, 0.05) is not None
+    # a collapse estimate (205.6 MPa) above the working stress × SF is flagged without the shortfall
+    assert "does not keep" not in str(yield_interaction_note(200e9, 250e6, 4e-3, 0.05, demand=150e6))
 
 
 # --------------------------------------------------------------------------- what kind of part it is
