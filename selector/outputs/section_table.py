@@ -13,6 +13,7 @@ import pandas as pd
 
 from selector.inputs.units import format_number
 from selector.outputs.cells import csv_text
+from selector.outputs.display_units import INCH
 from selector.outputs.tables import render
 from selector.outputs.terminal import Layout, wrap
 
@@ -38,7 +39,7 @@ SECTION_ROWS = (
 
 def section_values(section: Any, units: str = "si") -> dict[str, dict[str, Any]]:
     """Every reported section property as {"value": ..., "unit": ...} in mm- or inch-based units."""
-    length, factor = ("mm", 1e3) if units == "si" else ("in", 1 / 0.0254)
+    length, factor = ("mm", 1e3) if units == "si" else ("in", 1 / INCH)
     sup = {1: "", 2: "^2", 3: "^3", 4: "^4"}
     raw = {
         "area": section.A,

@@ -16,7 +16,7 @@ import pandas as pd
 from selector.inputs.units import format_number
 from selector.mechanics.objectives import OBJECTIVE_UNITS
 from selector.outputs.display_units import BTU, INCH, POUND, text_in_units
-from selector.outputs.tables import fit_frame, render
+from selector.outputs.tables import ENERGY_UNIT, fit_frame, render
 from selector.outputs.terminal import Layout, Shorten, Step, wrap
 from selector.pipeline.columns import is_index_column
 from selector.pipeline.robust import RobustResult
@@ -27,7 +27,7 @@ CUBIC_INCH = INCH**3
 KBTU_IN_MJ = BTU * 1e3 / 1e6
 """MJ per thousand British thermal units."""
 
-_US = {"mass": ("lb", 1 / POUND), "volume": ("in³", 1 / CUBIC_INCH), "energy": ("kBtu", 1 / KBTU_IN_MJ)}
+_US = {"mass": ("lb", 1 / POUND), "volume": ("in³", 1 / CUBIC_INCH), "energy": ENERGY_UNIT["us"]}
 """Objectives shown in US units: (unit, factor from the SI value). Cost stays in USD and
 embodied carbon in kg CO2e, units used the world over."""
 _US_ALPHA = {

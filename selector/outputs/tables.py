@@ -25,9 +25,9 @@ from selector.pipeline import columns
 SUMMARY_PROPERTIES = ("rho", "E", "sigma_y", "sigma_ts", "T_max", "price")
 LENGTH_UNIT = {"si": "mm", "us": "in"}
 MASS_UNIT = {"si": "kg", "us": "lb"}
-_LENGTH_FACTOR = {"si": 1e3, "us": 1 / 0.0254}
-_MASS_FACTOR = {"si": 1.0, "us": 1 / 0.45359237}
-_STRESS = {"si": ("MPa", 1e-6), "us": ("ksi", 1 / 6.894757293168361e6)}
+_LENGTH_FACTOR = {"si": 1e3, "us": 1 / display_units.INCH}
+_MASS_FACTOR = {"si": 1.0, "us": 1 / display_units.POUND}
+_STRESS = {"si": ("MPa", 1e-6), "us": ("ksi", 1 / (1e3 * display_units.PSI))}
 ENERGY_UNIT = {"si": ("MJ", 1.0), "us": ("kBtu", 1e3 / display_units.BTU)}
 """Embodied energy of a part: (unit, factor from MJ)."""
 ANGLE_UNIT = "deg"
