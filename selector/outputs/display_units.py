@@ -346,7 +346,7 @@ _PROSE_UNITS = {
 _NUMBER = r"-?\d+(?:\.\d+)?(?:e[-+]?\d+)?"
 _UNIT_WORDS = "|".join(re.escape(x) for x in sorted([*_LABELS, *_PROSE_UNITS], key=len, reverse=True))
 _QUANTITY = re.compile(
-    rf"(?<![\w.])(?P<low>{_NUMBER})(?:(?P<sep>–| to | and )(?P<high>{_NUMBER}))? "
+    rf"(?<![\w.-])(?P<low>{_NUMBER})(?:(?P<sep>–|-| to | and )(?P<high>{_NUMBER}))? "
     rf"(?P<unit>{_UNIT_WORDS})(?![\w/·²³½])"
 )
 

@@ -210,3 +210,16 @@ def test_the_report_in_us_units_shows_no_number_in_si(name, tmp_path):
         if NUMBER_IN_SI.search(rest):
             left.append(line.strip())
     assert left == []
+
+
+@pytest.mark.parametrize(
+    ("text", "shown"),
+    [
+        # °F = °C × 9/5 + 32: 55 °C = 131 °F, 60 °C = 140 °F; a hyphen between two numbers is a range
+        ("(~55-60 degC)", "(~131-140 °F)"),
+        ("service -40-80 degC", "service -40-176 °F"),
+        ("K_IC 6–20 MPa·m½", "K_IC 5.46–18.2 ksi·in½"),  # 1 ksi·in½ = 1.0988 MPa·m½
+    ],
+)
+def test_a_range_is_converted_at_both_ends(text, shown):
+    assert text_in_units(text, "us") == shown
