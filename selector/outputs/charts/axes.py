@@ -75,24 +75,8 @@ def _check_units(units: str) -> str:
     return units
 
 
-def property_shown(symbol: str, units: str) -> display_units.Shown:
-    """The unit a property is shown in (``display_units``) and its factor from the stored unit.
-
-    Where ``display_units`` leaves the conversion to pint (NaN factor), the factor is
-    pint's when the conversion is a plain scaling (kg/m³ to lb/in³) and stays NaN for
-    an offset unit (°C to °F).
-    """
-    shown = display_units.property_unit(symbol, units)
-    if math.isfinite(shown.factor):
-        return shown
-    prop = property_of(symbol)
-    zero, one, two = convert(np.array([0.0, 1.0, 2.0]), prop.stored, prop.us, symbol)
-    scaling = abs(zero) <= 1e-12 * abs(one) and math.isclose(two, 2 * one)
-    return display_units.Shown(shown.label, float(one) if scaling else math.nan)
-
-
 def _unit_label(symbol: str, units: str) -> str:
-    label = property_shown(symbol, units).label
+    label = display_units.property_unit(symbol, units).label
     return "" if label == "–" else label
 
 
@@ -113,13 +97,13 @@ def monomial_unit(
 
     The unit is the one ``display_units.index_unit`` gives an index of these powers
     (``values``, in stored units, choose an energy unit's prefix), so a chart and the
-    shortlist table show one number. Where it has no factor (a US unit pint converts)
+    shortlist table show one number. Where it has no factor (an offset unit such as °F)
     the unit is built from the properties' own display units.
     """
     shown = display_units.index_unit(powers, units, values)
     if math.isfinite(shown.factor):
         return unit_html(shown.label), shown.factor
-    factor = math.prod(property_shown(s, units).factor ** p for s, p in powers.items())
+    factor = math.prod(display_units.property_unit(s, units).factor ** p for s, p in powers.items())
     return _units_html(powers, units), factor
 
 
@@ -143,7 +127,7 @@ def _stored_values(table: pd.DataFrame, symbol: str) -> tuple[np.ndarray, np.nda
 
 def shown_value(symbol: str, value: np.ndarray | float, units: str) -> np.ndarray:
     """A property's value(s) in stored units converted to the unit its axis shows."""
-    shown = property_shown(symbol, units)
+    shown = display_units.property_unit(symbol, units)
     if math.isfinite(shown.factor):
         return np.asarray(value, dtype=float) * shown.factor
     prop = property_of(symbol)
@@ -193,7 +177,7 @@ def axis_spec(
             units,
             1.0,
             {text: 1.0},
-            factor=property_shown(text, units).factor,
+            factor=display_units.property_unit(text, units).factor,
         )
     expr = parse(text)
     if not expr.symbols:
@@ -258,9 +242,10 @@ def hover_ranges(table: pd.DataFrame, axis: AxisSpec, low: np.ndarray, high: np.
     if not axis.is_property or not math.isfinite(axis.factor):
         return texts
     stored_low, stored_high = _stored_values(table, axis.text)
+    column = display_units.property_unit(axis.text, axis.units).label
     for i, top in enumerate(stored_high):
         shown = display_units.range_unit(axis.text, float(top), axis.units)
-        if math.isfinite(shown.factor) and shown.label != property_shown(axis.text, axis.units).label:
+        if math.isfinite(shown.factor) and shown.label != column:
             texts[i] = _range_text(stored_low[i] * shown.factor, top * shown.factor, _esc(shown.label))
     return texts
 
