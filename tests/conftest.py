@@ -71,3 +71,24 @@ def five_classes() -> pd.DataFrame:
 @pytest.fixture
 def gm():
     return lambda lo, hi: math.sqrt(lo * hi)
+
+
+def sandwich_panel(**tables: object) -> dict:
+    """A spec (nested dicts) of an invented plant-room hatch: a simply supported sandwich panel,
+    centre load, stiffness and strength constraints; ``tables`` replace or add whole tables."""
+    return {
+        "part": {
+            "function": "panel",
+            "support": "simply-supported",
+            "load": "centre",
+            "length": "0.9 m",
+            "width": "0.6 m",
+            "force": "1.5 kN",
+        },
+        "section": {"shape": "sandwich", "free": "faces-and-core"},
+        "constraint": [
+            {"type": "stiffness", "max_deflection": "3 mm"},
+            {"type": "strength", "safety_factor": 2.0},
+        ],
+        **tables,
+    }

@@ -9,27 +9,15 @@ from selector.inputs.spec import spec_from_dict
 from selector.mechanics.product_forms import CLASS_MIN_WALL
 from selector.pipeline.sandwich import MIN_FACE
 from selector.pipeline.selection import select, studies
+from tests.conftest import sandwich_panel
 
 
 def _panel(objective: str = "mass", **sandwich) -> dict:
-    return {
-        "title": "Plant-room hatch (illustrative)",
-        "part": {
-            "function": "panel",
-            "support": "simply-supported",
-            "load": "centre",
-            "length": "0.9 m",
-            "width": "0.6 m",
-            "force": "1.5 kN",
-        },
-        "section": {"shape": "sandwich", "free": "faces-and-core"},
-        "sandwich": {"faces": ["metal"], "cores": ["foam", "natural"], **sandwich},
-        "objective": {"minimize": objective},
-        "constraint": [
-            {"type": "stiffness", "max_deflection": "3 mm"},
-            {"type": "strength", "safety_factor": 2.0},
-        ],
-    }
+    return sandwich_panel(
+        title="Plant-room hatch (illustrative)",
+        sandwich={"faces": ["metal"], "cores": ["foam", "natural"], **sandwich},
+        objective={"minimize": objective},
+    )
 
 
 @pytest.fixture(scope="module")

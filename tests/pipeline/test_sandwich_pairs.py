@@ -11,29 +11,9 @@ from selector.inputs.spec import EXAMPLES, load_spec, spec_from_dict
 from selector.mechanics.sandwich import MODES
 from selector.pipeline.sandwich import MIN_CORE, MIN_FACE
 from selector.pipeline.selection import select
+from tests.conftest import sandwich_panel
 
 HATCH = EXAMPLES / "walkway-hatch.toml"
-
-
-def _spec(**changes) -> dict:
-    data = {
-        "part": {
-            "function": "panel",
-            "support": "simply-supported",
-            "load": "centre",
-            "length": "0.9 m",
-            "width": "0.6 m",
-            "force": "1.5 kN",
-        },
-        "section": {"shape": "sandwich", "free": "faces-and-core"},
-        "constraint": [
-            {"type": "stiffness", "max_deflection": "3 mm"},
-            {"type": "strength", "safety_factor": 2.0},
-        ],
-    }
-    for key, value in changes.items():
-        data[key] = value
-    return data
 
 
 @pytest.fixture(scope="module")
@@ -81,7 +61,9 @@ def test_classes_without_core_data_are_left_out_with_a_reason(hatch):
 
 
 def test_faces_and_cores_by_id_and_family():
-    spec = spec_from_dict(_spec(sandwich={"faces": ["al-6xxx-wrought", "composite"], "cores": ["pvc-foam"]}))
+    spec = spec_from_dict(
+        sandwich_panel(sandwich={"faces": ["al-6xxx-wrought", "composite"], "cores": ["pvc-foam"]})
+    )
     pairs = select(spec).sandwich.pairs
     assert set(pairs["core"]) == {"pvc-foam"}
     assert "al-6xxx-wrought" in set(pairs["face"]) and "cfrp-qi" in set(pairs["face"])
@@ -89,21 +71,21 @@ def test_faces_and_cores_by_id_and_family():
 
 
 def test_cost_objective_ranks_by_cost():
-    spec = spec_from_dict(_spec(objective={"minimize": "cost"}))
+    spec = spec_from_dict(sandwich_panel(objective={"minimize": "cost"}))
     feasible = select(spec).sandwich.feasible
     assert feasible["cost"].to_numpy() == pytest.approx(feasible["objective"].to_numpy(), rel=1e-12)
     assert feasible["cost"].is_monotonic_increasing
 
 
 def test_spec_minimum_thicknesses_override_the_family_ones():
-    spec = spec_from_dict(_spec(sandwich={"min_face": "1 mm", "min_core": "12 mm"}))
+    spec = spec_from_dict(sandwich_panel(sandwich={"min_face": "1 mm", "min_core": "12 mm"}))
     feasible = select(spec).sandwich.feasible
     assert feasible["t_face"].min() >= 1e-3 * (1 - 1e-12)
     assert feasible["t_core"].min() >= 12e-3 * (1 - 1e-12)
 
 
 def test_conservative_sizing_is_heavier():
-    spec = spec_from_dict(_spec(sandwich={"faces": ["al-6xxx-wrought"], "cores": ["pvc-foam"]}))
+    spec = spec_from_dict(sandwich_panel(sandwich={"faces": ["al-6xxx-wrought"], "cores": ["pvc-foam"]}))
     mid = select(spec).sandwich.pairs.iloc[0]["mass"]
     low = select(spec, conservative=True).sandwich.pairs.iloc[0]["mass"]
     assert low > mid
@@ -121,19 +103,19 @@ def test_conservative_sizing_is_heavier():
 )
 def test_bad_sandwich_specs_name_the_field(changes, where):
     with pytest.raises(InputError) as info:
-        select(spec_from_dict(_spec(**changes)))
+        select(spec_from_dict(sandwich_panel(**changes)))
     assert str(info.value).startswith(f"{where}: ")
 
 
 def test_a_sandwich_needs_a_width():
-    data = _spec()
+    data = sandwich_panel()
     del data["part"]["width"]
     with pytest.raises(InputError, match=r"part\.width"):
         select(spec_from_dict(data))
 
 
 def test_a_sandwich_beam_takes_its_width_from_the_section():
-    data = _spec(section={"shape": "sandwich", "free": "faces-and-core", "b": "80 mm"})
+    data = sandwich_panel(section={"shape": "sandwich", "free": "faces-and-core", "b": "80 mm"})
     data["part"]["function"] = "beam"
     del data["part"]["width"]
     result = select(spec_from_dict(data)).sandwich
@@ -143,7 +125,7 @@ def test_a_sandwich_beam_takes_its_width_from_the_section():
 
 
 def test_no_strength_constraint_still_checks_failure_modes_at_one():
-    data = _spec()
+    data = sandwich_panel()
     data["constraint"] = [{"type": "stiffness", "max_deflection": "3 mm"}]
     result = select(spec_from_dict(data)).sandwich
     assert result.loads.SF == 1.0
