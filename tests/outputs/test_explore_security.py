@@ -42,19 +42,32 @@ def _values(component: Any, out: dict[str, Any]) -> dict[str, Any]:
     return out
 
 
+def _callback_body(app: Any, client: Any, output: str) -> dict[str, Any]:
+    """A body for the callback whose output names ``output``, as the page sends it on load."""
+    deps = client.get("/_dash-dependencies").get_json()
+    dep = next(d for d in deps if output in d["output"])
+    values = _values(app.layout, {})
+
+    def item(i: dict[str, Any]) -> dict[str, Any]:
+        return {"id": i["id"], "property": i["property"], "value": values.get(i["id"])}
+
+    body: dict[str, Any] = {
+        "output": dep["output"],
+        "outputs": [
+            {"id": p.split(".")[0], "property": p.split(".")[1].split("@")[0]}
+            for p in dep["output"].strip(".").split("...")
+        ],
+        "inputs": [item(i) for i in dep["inputs"]],
+    }
+    if dep.get("state"):
+        body["state"] = [item(i) for i in dep["state"]]
+    return body | {"changedPropIds": []}
+
+
 @pytest.fixture(scope="module")
 def refresh_body(app, client):
-    """A callback body for the main refresh, as the page sends it on load."""
-    deps = client.get("/_dash-dependencies").get_json()
-    main = next(d for d in deps if "chart.figure" in d["output"])
-    values = _values(app.layout, {})
-    outputs = [
-        {"id": p.split(".")[0], "property": p.split(".")[1]} for p in main["output"].strip(".").split("...")
-    ]
-    inputs = [
-        {"id": i["id"], "property": i["property"], "value": values.get(i["id"])} for i in main["inputs"]
-    ]
-    return {"output": main["output"], "outputs": outputs, "inputs": inputs, "changedPropIds": []}
+    """A callback body for the main refresh."""
+    return _callback_body(app, client, "chart.figure")
 
 
 def _with(body: dict[str, Any], control: str, value: Any) -> dict[str, Any]:
@@ -233,25 +246,8 @@ def test_fifty_simultaneous_sessions_agree(served, refresh_body) -> None:
 
 @pytest.fixture(scope="module")
 def reload_body(app, client):
-    """A callback body for the upload / solid-sandwich / address callback, as the page sends it."""
-    deps = client.get("/_dash-dependencies").get_json()
-    loader = next(d for d in deps if "msg-upload.children" in d["output"])
-    values = _values(app.layout, {})
-    outputs = [
-        {"id": p.split(".")[0], "property": p.split(".")[1].split("@")[0]}
-        for p in loader["output"].strip(".").split("...")
-    ]
-
-    def item(i: dict[str, Any]) -> dict[str, Any]:
-        return {"id": i["id"], "property": i["property"], "value": values.get(i["id"])}
-
-    return {
-        "output": loader["output"],
-        "outputs": outputs,
-        "inputs": [item(i) for i in loader["inputs"]],
-        "state": [item(i) for i in loader["state"]],
-        "changedPropIds": [],
-    }
+    """A callback body for the upload / solid-sandwich / address callback."""
+    return _callback_body(app, client, "msg-upload.children")
 
 
 @pytest.mark.parametrize(
